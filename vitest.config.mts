@@ -1,0 +1,20 @@
+import { defineConfig } from "vitest/config";
+import path from "node:path";
+
+export default defineConfig({
+  resolve: {
+    alias: {
+      "@": path.resolve(__dirname),
+      // server-only throws outside a React Server bundle; tests import server modules directly.
+      "server-only": path.resolve(__dirname, "tests/support/server-only.ts"),
+    },
+  },
+  test: {
+    include: ["tests/unit/**/*.test.ts", "tests/api/**/*.test.ts", "tests/e2e/**/*.test.ts"],
+    environment: "node",
+    testTimeout: 30_000,
+    hookTimeout: 120_000,
+    pool: "forks",
+    fileParallelism: true,
+  },
+});
