@@ -1,0 +1,14 @@
+import type { Knex } from "knex";
+import * as m20261202000000 from "./20261202000000_initial";
+
+// Explicit list so migrations run the same under the knex CLI, vitest and the built server.
+// Add a migration: create db/migrations/<timestamp>_<what>.ts and append it here. Never edit one that shipped.
+const migrations: Record<string, Knex.Migration> = {
+  "20261202000000_initial": m20261202000000,
+};
+
+export const migrationSource: Knex.MigrationSource<string> = {
+  getMigrations: async () => Object.keys(migrations).sort(),
+  getMigrationName: (name) => name,
+  getMigration: async (name) => migrations[name],
+};

@@ -1,0 +1,65 @@
+import { addDays, differenceInCalendarDays } from "date-fns";
+import { DomainError } from "@/lib/errors";
+
+/** A calendar day as "yyyy-MM-dd". Days are counted on the calendar, never as hours/24. */
+export type IsoDay = string;
+
+const isoDayPattern = /^(\d{4})-(\d{2})-(\d{2})$/;
+
+function pad2(n: number): string {
+  return n < 10 ? `0${n}` : String(n);
+}
+
+/** Local midnight of the day; date-fns then adds calendar days, so DST changes cannot shift it. */
+export function parseIsoDay(day: IsoDay, field = "date"): Date {
+  const m = isoDayPattern.exec(day);
+  if (!m) throw new DomainError(`The ${field} "${day}" is not a date like 2024-03-21.`, { [field]: "Use yyyy-mm-dd." });
+  const y = Number(m[1]);
+  const mo = Number(m[2]);
+  const d = Number(m[3]);
+  const date = new Date(y, mo - 1, d);
+  // new Date rolls 2024-02-30 over to March; a real date survives the round trip.
+  if (date.getFullYear() !== y || date.getMonth() !== mo - 1 || date.getDate() !== d) {
+    throw new DomainError(`The ${field} "${day}" is not a real calendar date.`, { [field]: "No such day." });
+  }
+  return date;
+}
+
+/** Formats by hand: the same result as date-fns format(d, "yyyy-MM-dd"), and much faster for a round of 10,000 bags. */
+export function formatIsoDay(date: Date): IsoDay {
+  const y = date.getFullYear();
+  const ys = y >= 0 && y < 10000 ? String(y).padStart(4, "0") : String(y);
+  return `${ys}-${pad2(date.getMonth() + 1)}-${pad2(date.getDate())}`;
+}
+
+export function isIsoDay(day: string): boolean {
+  try {
+    parseIsoDay(day);
+    return true;
+  } catch {
+    return false;
+  }
+}
+
+export function addDaysToIsoDay(day: IsoDay, days: number): IsoDay {
+  if (!Number.isInteger(days)) throw new DomainError(`A number of days must be whole (got ${days}).`);
+  return formatIsoDay(addDays(parseIsoDay(day), days));
+}
+
+/** Calendar days from `from` to `to` (positive when `to` is later). */
+export function countDaysBetween(from: IsoDay, to: IsoDay): number {
+  return differenceInCalendarDays(parseIsoDay(to), parseIsoDay(from));
+}
+
+/** yyyy-MM-dd strings sort as dates, so comparisons need no parsing. */
+export function compareIsoDays(a: IsoDay, b: IsoDay): number {
+  return a < b ? -1 : a > b ? 1 : 0;
+}
+
+export function pickEarlierDay(a: IsoDay, b: IsoDay): IsoDay {
+  return a <= b ? a : b;
+}
+
+export function pickLaterDay(a: IsoDay, b: IsoDay): IsoDay {
+  return a >= b ? a : b;
+}

@@ -1,0 +1,136 @@
+import type { BagState } from "@/lib/schemas/vocabulary";
+import type { IsoDay } from "./dates";
+import {
+  determineBagState,
+  scheduleNextCheck,
+  type BagRecord,
+  type CheckCadence,
+  type CheckFindings,
+  type NextCheck,
+  type NextCheckReason,
+  type PullWindow,
+} from "./schedule";
+
+export interface RoundBag extends BagRecord {
+  id: string;
+  code: string;
+  storeId: string;
+  storeName: string;
+  box: string;
+  species?: string;
+  window: PullWindow | null;
+  lastCheck?: CheckFindings | null;
+  nextMoveOn?: IsoDay | null;
+}
+
+export interface RoundItem {
+  bag: RoundBag;
+  state: BagState;
+  next: NextCheck;
+  /** 0 is most urgent. */
+  priority: number;
+  /** The check fell due before today and was missed. */
+  isLate: boolean;
+}
+
+export interface RoundBox {
+  box: string;
+  items: RoundItem[];
+}
+
+export interface RoundStore {
+  storeId: string;
+  storeName: string;
+  boxes: RoundBox[];
+  /** Most urgent priority in this store; stores are listed most urgent first. */
+  topPriority: number;
+}
+
+export interface TodaysRound {
+  date: IsoDay;
+  /** Every due bag, most urgent first. */
+  items: RoundItem[];
+  /** The same bags, grouped by cold store and box for walking the fridges. */
+  stores: RoundStore[];
+  counts: { due: number; urgent: number; byReason: Partial<Record<NextCheckReason, number>> };
+}
+
+// Mould first, then roots and overdue bags, then windows opening: the order the product brief asks for.
+const reasonPriority: Record<NextCheckReason, number> = {
+  discard_now: 0,
+  pull_now: 1,
+  overdue: 2,
+  window_opens: 3,
+  follow_up: 4,
+  move_to_next_phase: 5,
+  window_daily: 6,
+  weekly: 7,
+};
+
+function findPriority(next: NextCheck, bag: RoundBag, state: BagState): number {
+  if (bag.lastCheck && bag.lastCheck.mould !== "clean" && next.reason === "follow_up") return 0;
+  if (state === "overdue" && next.reason !== "discard_now" && next.reason !== "pull_now") return reasonPriority.overdue;
+  return reasonPriority[next.reason];
+}
+
+const collator = new Intl.Collator("en", { numeric: true, sensitivity: "base" });
+
+function compareItems(a: RoundItem, b: RoundItem): number {
+  return (
+    a.priority - b.priority ||
+    collator.compare(a.bag.storeName, b.bag.storeName) ||
+    collator.compare(a.bag.box, b.bag.box) ||
+    collator.compare(a.bag.code, b.bag.code)
+  );
+}
+
+/** Computes the bags due on `today` (next check on or before it). Linear in bags plus one sort; shared by phone and server. */
+export function buildTodaysRound(bags: readonly RoundBag[], today: IsoDay, cadence?: CheckCadence): TodaysRound {
+  const items: RoundItem[] = [];
+  for (const bag of bags) {
+    const state = determineBagState(bag, bag.window, today);
+    const next = scheduleNextCheck({
+      state,
+      startedOn: bag.startedOn,
+      window: bag.window,
+      lastCheck: bag.lastCheck ?? null,
+      nextMoveOn: bag.nextMoveOn ?? null,
+      cadence,
+    });
+    if (!next || next.on > today) continue;
+    const isWindowOpening = bag.window?.opensOn === today && next.reason === "window_daily";
+    const shown: NextCheck = isWindowOpening ? { ...next, reason: "window_opens", note: "Pull window opens today: start daily checks." } : next;
+    items.push({ bag, state, next: shown, priority: findPriority(shown, bag, state), isLate: shown.on < today });
+  }
+  items.sort(compareItems);
+
+  const storeMap = new Map<string, RoundStore>();
+  const boxMaps = new Map<string, Map<string, RoundBox>>();
+  const byReason: Partial<Record<NextCheckReason, number>> = {};
+  for (const item of items) {
+    byReason[item.next.reason] = (byReason[item.next.reason] ?? 0) + 1;
+    let store = storeMap.get(item.bag.storeId);
+    if (!store) {
+      store = { storeId: item.bag.storeId, storeName: item.bag.storeName, boxes: [], topPriority: item.priority };
+      storeMap.set(item.bag.storeId, store);
+      boxMaps.set(item.bag.storeId, new Map());
+    }
+    const boxes = boxMaps.get(item.bag.storeId)!;
+    let box = boxes.get(item.bag.box);
+    if (!box) {
+      box = { box: item.bag.box, items: [] };
+      boxes.set(item.bag.box, box);
+      store.boxes.push(box);
+    }
+    box.items.push(item);
+  }
+  const stores = [...storeMap.values()].sort(
+    (a, b) => a.topPriority - b.topPriority || collator.compare(a.storeName, b.storeName),
+  );
+  return {
+    date: today,
+    items,
+    stores,
+    counts: { due: items.length, urgent: items.filter((i) => i.priority <= reasonPriority.window_opens).length, byReason },
+  };
+}

@@ -1,0 +1,276 @@
+import type { Protocol } from "@/lib/schemas/protocol";
+import type { BagState, CheckAction, Moisture, Mould, PhaseKind, Sprouts } from "@/lib/schemas/vocabulary";
+import { DomainError } from "@/lib/errors";
+import { addDaysToIsoDay, parseIsoDay, pickEarlierDay, pickLaterDay, type IsoDay } from "./dates";
+import { reconcileProtocol, type ReconciledProtocol } from "./protocols";
+
+export interface PullWindow {
+  opensOn: IsoDay;
+  closesOn: IsoDay;
+  /** Common practice: plan the pull for the earliest date and check daily from then. */
+  plannedPullOn: IsoDay;
+  sourcesDisagree: boolean;
+}
+
+export interface BagPhasePlan {
+  kind: PhaseKind;
+  /** Earliest and latest day this phase can begin (earlier phases run their shortest or longest time). */
+  startsOn: IsoDay;
+  startsLatestOn: IsoDay;
+  endsOn: IsoDay;
+  endsLatestOn: IsoDay;
+}
+
+export interface BagPlan {
+  phases: BagPhasePlan[];
+  window: PullWindow | null;
+  /** Day the bag should move to its next phase (e.g. warm → fridge), when that move is still ahead. */
+  nextMoveOn: IsoDay | null;
+  nextMoveTo: PhaseKind | null;
+}
+
+export type ProtocolForPlan = Pick<Protocol, "species" | "phases" | "effectiveBand">;
+
+function toReconciled(protocol: ProtocolForPlan | ReconciledProtocol): ReconciledProtocol {
+  return "timedPhases" in protocol ? protocol : reconcileProtocol(protocol);
+}
+
+/**
+ * Lays the protocol's timed phases end to end from the start day (warm phase first, if any).
+ * `finalPhaseStartedOn`: when the bag really moved into its last phase (e.g. into the fridge), the window counts from then.
+ */
+export function planBagPhases(
+  protocol: ProtocolForPlan | ReconciledProtocol,
+  startedOn: IsoDay,
+  finalPhaseStartedOn: IsoDay | null = null,
+): BagPlan {
+  parseIsoDay(startedOn, "start date");
+  const timed = toReconciled(protocol).timedPhases;
+  if (timed.length === 0) return { phases: [], window: null, nextMoveOn: null, nextMoveTo: null };
+  const phases: BagPhasePlan[] = [];
+  let early = startedOn;
+  let late = startedOn;
+  timed.forEach((phase, i) => {
+    if (i === timed.length - 1 && finalPhaseStartedOn) {
+      early = finalPhaseStartedOn;
+      late = finalPhaseStartedOn;
+    }
+    const endsOn = addDaysToIsoDay(early, phase.minDays);
+    const endsLatestOn = addDaysToIsoDay(late, phase.maxDays);
+    phases.push({ kind: phase.kind, startsOn: early, startsLatestOn: late, endsOn, endsLatestOn });
+    early = endsOn;
+    late = endsLatestOn;
+  });
+  const last = phases[phases.length - 1];
+  const window: PullWindow = {
+    opensOn: last.endsOn,
+    closesOn: last.endsLatestOn,
+    plannedPullOn: last.endsOn,
+    sourcesDisagree: timed.some((p) => p.sourcesDisagree),
+  };
+  const moving = phases.length > 1 && !finalPhaseStartedOn;
+  return {
+    phases,
+    window,
+    nextMoveOn: moving ? phases[phases.length - 1].startsOn : null,
+    nextMoveTo: moving ? last.kind : null,
+  };
+}
+
+export function computePullWindow(
+  protocol: ProtocolForPlan | ReconciledProtocol,
+  startedOn: IsoDay,
+  finalPhaseStartedOn: IsoDay | null = null,
+): PullWindow | null {
+  return planBagPhases(protocol, startedOn, finalPhaseStartedOn).window;
+}
+
+/** What the bag's own records say; dates are yyyy-MM-dd. */
+export interface BagRecord {
+  startedOn: IsoDay | null;
+  pulledOn?: IsoDay | null;
+  sownOn?: IsoDay | null;
+  discardedOn?: IsoDay | null;
+}
+
+export function determineBagState(bag: BagRecord, window: PullWindow | null, today: IsoDay): BagState {
+  if (bag.discardedOn) return "discarded";
+  if (bag.sownOn) return "sown";
+  if (bag.pulledOn) return "pulled";
+  if (!bag.startedOn || bag.startedOn > today) return "planned";
+  if (!window || today < window.opensOn) return "chilling";
+  if (today <= window.closesOn) return "window_open";
+  return "overdue";
+}
+
+export interface CheckFindings {
+  on: IsoDay;
+  moisture: Moisture;
+  mould: Mould;
+  sprouts: Sprouts;
+  actions?: readonly CheckAction[];
+}
+
+export interface CheckCadence {
+  /** Days between checks while chilling, before the window opens (weekly by default). */
+  everyDaysBeforeWindow: number;
+  /** Sooner follow-ups after a problem (common practice: 1–2 days). */
+  followUpDays: { soggy: number; dry: number; mouldSpots: number; mouldRescued: number };
+}
+
+export const defaultCheckCadence: CheckCadence = {
+  everyDaysBeforeWindow: 7,
+  followUpDays: { soggy: 1, dry: 2, mouldSpots: 1, mouldRescued: 1 },
+};
+
+export type NextCheckReason =
+  | "discard_now"
+  | "pull_now"
+  | "overdue"
+  | "window_opens"
+  | "follow_up"
+  | "move_to_next_phase"
+  | "window_daily"
+  | "weekly";
+
+export interface NextCheck {
+  on: IsoDay;
+  reason: NextCheckReason;
+  /** Short calm words for the round. */
+  note: string;
+}
+
+export interface NextCheckInput {
+  state: BagState;
+  startedOn: IsoDay | null;
+  window: PullWindow | null;
+  lastCheck?: CheckFindings | null;
+  nextMoveOn?: IsoDay | null;
+  cadence?: CheckCadence;
+}
+
+const rescueActions: readonly CheckAction[] = ["removed_mouldy_seed", "fresh_towel"];
+
+function findFollowUp(check: CheckFindings, cadence: CheckCadence): { days: number; note: string } | null {
+  const rescued = (check.actions ?? []).some((a) => rescueActions.includes(a));
+  const options: { days: number; note: string }[] = [];
+  if (check.mould === "spreading" && rescued) options.push({ days: cadence.followUpDays.mouldRescued, note: "Look again for mould after the rescue." });
+  if (check.mould === "spots") options.push({ days: cadence.followUpDays.mouldSpots, note: "Look again for mould spots." });
+  if (check.moisture === "soggy") options.push({ days: cadence.followUpDays.soggy, note: "See whether the medium has dried to damp." });
+  if (check.moisture === "dry") options.push({ days: cadence.followUpDays.dry, note: "See whether the medium stayed damp." });
+  if (options.length === 0) return null;
+  return options.reduce((a, b) => (b.days < a.days ? b : a));
+}
+
+/**
+ * Next check: weekly (configurable) before the window, daily inside it and after it, sooner after a problem,
+ * and at once when the last check found roots (sow when about 10 % of the seed shows a radicle: Forest Research)
+ * or spreading mould. Returns null when nothing is left to check (planned, pulled, sown, discarded).
+ */
+export function scheduleNextCheck(input: NextCheckInput): NextCheck | null {
+  const { state, window, startedOn } = input;
+  const cadence = input.cadence ?? defaultCheckCadence;
+  if (cadence.everyDaysBeforeWindow < 1 || !Number.isInteger(cadence.everyDaysBeforeWindow)) {
+    throw new DomainError("Days between checks must be a whole number of at least 1.");
+  }
+  if (state !== "chilling" && state !== "window_open" && state !== "overdue") return null;
+  if (!startedOn) return null;
+  const check = input.lastCheck ?? null;
+  const rescued = check ? (check.actions ?? []).some((a) => rescueActions.includes(a)) : false;
+  if (check && check.mould === "spreading" && !rescued) {
+    return { on: check.on, reason: "discard_now", note: "Mould was spreading: discard the bag sealed." };
+  }
+  if (check && check.sprouts !== "none") {
+    return { on: check.on, reason: "pull_now", note: "First roots were showing: pull now and sow." };
+  }
+
+  const last = check ? pickLaterDay(check.on, startedOn) : startedOn;
+  let on: IsoDay;
+  let reason: NextCheckReason;
+  let note: string;
+  const nextDay = addDaysToIsoDay(last, 1);
+  if (window && nextDay >= window.opensOn) {
+    on = nextDay;
+    reason = on > window.closesOn ? "overdue" : "window_daily";
+    note = reason === "overdue" ? "Past the latest pull date: pull and sow, or note why it stays." : "Pull window open: check daily.";
+  } else {
+    const weekly = addDaysToIsoDay(last, cadence.everyDaysBeforeWindow);
+    on = window ? pickEarlierDay(weekly, window.opensOn) : weekly;
+    reason = window && on === window.opensOn ? "window_opens" : "weekly";
+    note = reason === "window_opens" ? "Pull window opens: start daily checks." : "Routine check.";
+  }
+
+  if (input.nextMoveOn && input.nextMoveOn > last && input.nextMoveOn <= on) {
+    on = input.nextMoveOn;
+    reason = "move_to_next_phase";
+    note = "Warm phase done: move the bag to the cold store.";
+  }
+  if (check) {
+    const followUp = findFollowUp(check, cadence);
+    if (followUp) {
+      const fuOn = addDaysToIsoDay(check.on, followUp.days);
+      if (fuOn <= on) {
+        on = fuOn;
+        reason = "follow_up";
+        note = followUp.note;
+      }
+    }
+  }
+  return { on, reason, note };
+}
+
+export type AdviceLevel = "fine" | "attention" | "act_now";
+
+export interface CheckAdvice {
+  level: AdviceLevel;
+  headline: string;
+  steps: string[];
+}
+
+/** Calm grower words for what a check found. */
+export function adviseOnCheck(findings: Pick<CheckFindings, "moisture" | "mould" | "sprouts">): CheckAdvice {
+  const steps: string[] = [];
+  let level: AdviceLevel = "fine";
+  let headline = "All good: damp with dry corners, clean, no roots yet.";
+  if (findings.mould === "spreading") {
+    return {
+      level: "act_now",
+      headline: "Mould is spreading: discard this bag.",
+      steps: [
+        "Keep the bag sealed and put it straight in the bin.",
+        "Do not open it near your face or sniff it.",
+        "Wash your hands afterwards.",
+        "If the seed is precious, you may rescue clean-looking seeds onto fresh damp medium in a new bag, and check again tomorrow.",
+      ],
+    };
+  }
+  if (findings.sprouts === "first_roots" || findings.sprouts === "many") {
+    level = "act_now";
+    headline =
+      findings.sprouts === "many" ? "Many seeds have sprouted: pull and sow today." : "First roots are showing: pull now and sow.";
+    steps.push("Handle sprouted seeds gently; the young roots break easily.");
+  }
+  if (findings.mould === "spots") {
+    if (level === "fine") {
+      level = "attention";
+      headline = "A few mould spots.";
+    }
+    steps.push("Lift out the seeds with mould on them and blot the medium; check again tomorrow.");
+    steps.push("Wash your hands afterwards.");
+  }
+  if (findings.moisture === "soggy") {
+    if (level === "fine") {
+      level = "attention";
+      headline = "The medium is soggy.";
+    }
+    steps.push("Blot it with a dry towel until there is no free water; too wet breeds mould. Check again tomorrow.");
+  }
+  if (findings.moisture === "dry") {
+    if (level === "fine") {
+      level = "attention";
+      headline = "The medium has dried out.";
+    }
+    steps.push("Add a few drops of water until it is damp with dry corners; seed that dries out can fall back asleep. Check again in two days.");
+  }
+  return { level, headline, steps };
+}

@@ -1,0 +1,11 @@
+/** @type {import('next').NextConfig} */
+const nextConfig = {
+  reactStrictMode: true,
+  poweredByHeader: false,
+  // knex resolves every dialect driver dynamically; keep it (and the native sqlite binding) out of the bundle.
+  serverExternalPackages: ["knex", "better-sqlite3", "smtp-server", "nodemailer"],
+  // `next dev` runs on Turbopack; production builds use webpack (`next build --webpack`) for the service worker.
+  turbopack: {},
+};
+
+export default nextConfig;

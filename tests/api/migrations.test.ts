@@ -1,0 +1,54 @@
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { freshDatabase } from "../support/db";
+
+const farmOwnedTables = [
+  "memberships", "protocols", "protocol_sources", "lots", "stores", "readings", "bags", "checks",
+  "photos", "sowings", "counts", "trials", "trial_arms", "plan_items",
+];
+
+describe("migrations on an empty SQLite file", () => {
+  let ctx: Awaited<ReturnType<typeof freshDatabase>>;
+  beforeAll(async () => {
+    ctx = await freshDatabase();
+  });
+  afterAll(async () => ctx.cleanup());
+
+  it("creates every table of the data model", async () => {
+    for (const t of [...farmOwnedTables, "farms", "users", "sessions", "invites", "applied_mutations", "audit_log"]) {
+      expect(await ctx.db.schema.hasTable(t), t).toBe(true);
+    }
+  });
+
+  it("gives farm-owned tables the sync columns", async () => {
+    for (const t of farmOwnedTables) {
+      for (const c of ["id", "farm_id", "created_at", "updated_at", "seq", "deleted_at"]) {
+        expect(await ctx.db.schema.hasColumn(t, c), `${t}.${c}`).toBe(true);
+      }
+    }
+  });
+
+  it("enforces a unique bag code per farm and foreign keys", async () => {
+    const now = new Date().toISOString();
+    const base = { created_at: now, updated_at: now, seq: 1 };
+    await ctx.db("farms").insert([
+      { id: "f1", name: "A", created_at: now, updated_at: now },
+      { id: "f2", name: "B", created_at: now, updated_at: now },
+    ]);
+    await ctx.db("lots").insert([
+      { id: "l1", farm_id: "f1", species: "Asclepias syriaca", ...base },
+      { id: "l2", farm_id: "f2", species: "Asclepias syriaca", ...base },
+    ]);
+    await ctx.db("bags").insert({ id: "b1", farm_id: "f1", lot_id: "l1", code: "ABC123X", ...base });
+    // Same code on another farm is fine.
+    await ctx.db("bags").insert({ id: "b2", farm_id: "f2", lot_id: "l2", code: "ABC123X", ...base });
+    await expect(ctx.db("bags").insert({ id: "b3", farm_id: "f1", lot_id: "l1", code: "ABC123X", ...base })).rejects.toThrow(/UNIQUE/);
+    await expect(ctx.db("bags").insert({ id: "b4", farm_id: "f1", lot_id: "nope", code: "ZZZ", ...base })).rejects.toThrow(/FOREIGN KEY/);
+  });
+
+  it("rolls back and forward cleanly", async () => {
+    await ctx.db.migrate.rollback(undefined, true);
+    expect(await ctx.db.schema.hasTable("bags")).toBe(false);
+    await ctx.db.migrate.latest();
+    expect(await ctx.db.schema.hasTable("bags")).toBe(true);
+  });
+});
