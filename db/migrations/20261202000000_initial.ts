@@ -95,19 +95,22 @@ export async function up(knex: Knex): Promise<void> {
     farmOwned(t);
     t.string("species").notNullable(); // botanical name
     t.string("common_name").nullable();
-    t.text("phases").notNullable(); // JSON: ordered phases [{kind, …}]
-    t.text("notes").nullable();
-    t.boolean("is_farm_own").notNullable().defaultTo(false); // false = starter library copy
+    t.text("phases").notNullable(); // JSON: ordered phases, each with its sources (lib/schemas/protocol.ts)
+    t.text("effective_band").nullable(); // JSON {minC, maxC}; null = default 0–10 °C
+    t.text("no_cold_reason").nullable();
+    t.text("toxic_seed").nullable(); // JSON {citation, verified, note}
+    t.boolean("medicinal").notNullable().defaultTo(false);
+    t.boolean("is_farm_own").notNullable().defaultTo(true); // false = starter library row with published sources
     t.string("starter_key").nullable();
     t.string("source_trial_id", 36).nullable();
-    t.boolean("toxic").notNullable().defaultTo(false);
-    t.boolean("medicinal").notNullable().defaultTo(false);
+    t.text("note").nullable();
     t.index(["farm_id", "species"]);
   });
 
   await knex.schema.createTable("protocol_sources", (t) => {
     farmOwned(t);
     t.string("protocol_id", 36).notNullable().references("id").inTable("protocols").onDelete("CASCADE");
+    // Derived on the server from protocols.phases at each upsert, so sources can be listed and searched.
     t.integer("phase_index").notNullable();
     t.text("citation").notNullable();
     t.integer("min_days").nullable();
