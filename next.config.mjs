@@ -1,6 +1,8 @@
 /** @type {import('next').NextConfig} */
 const nextConfig = {
   reactStrictMode: true,
+  // Parallel local builds (several people in one tree) each get their own output folder.
+  distDir: process.env.NEXT_DIST_DIR || ".next",
   poweredByHeader: false,
   // knex resolves every dialect driver dynamically; keep it (and the native sqlite binding) out of the bundle.
   serverExternalPackages: ["knex", "better-sqlite3", "smtp-server", "nodemailer"],
