@@ -226,7 +226,7 @@ export function shiftPullWindow(window: PullWindow, lostDays: number): PullWindo
   return {
     ...window,
     opensOn: addDaysToIsoDay(window.opensOn, lostDays),
-    closesOn: addDaysToIsoDay(window.closesOn, lostDays),
+    closesOn: window.closesOn === null ? null : addDaysToIsoDay(window.closesOn, lostDays),
     plannedPullOn: addDaysToIsoDay(window.plannedPullOn, lostDays),
   };
 }

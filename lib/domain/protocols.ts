@@ -10,8 +10,8 @@ export const defaultOptimumBand: TemperatureBand = { minC: 1, maxC: 5 };
 export interface SourceReconciliation {
   /** Earliest minimum across sources. */
   minDays: number;
-  /** Latest maximum across sources. */
-  maxDays: number;
+  /** Latest maximum across sources; null when a source sets no upper limit. */
+  maxDays: number | null;
   /**
    * Planned duration. Common practice (no published source): when sources disagree, plan for the
    * earliest date and check daily from then, pulling as soon as the first roots show.
@@ -20,7 +20,7 @@ export interface SourceReconciliation {
   /** True when at least two sources give ranges that do not overlap. */
   sourcesDisagree: boolean;
   /** The days every source accepts, when they overlap. */
-  agreedRange: { minDays: number; maxDays: number } | null;
+  agreedRange: { minDays: number; maxDays: number | null } | null;
   citations: string[];
 }
 
@@ -50,14 +50,14 @@ export function reconcileSources(sources: readonly ProtocolSource[]): SourceReco
     return { minDays: 0, maxDays: 0, plannedDays: 0, sourcesDisagree: false, agreedRange: null, citations: [] };
   }
   let minDays = Infinity;
-  let maxDays = -Infinity;
+  let maxDays: number | null = -Infinity;
   let latestMin = -Infinity;
   let earliestMax = Infinity;
   for (const s of sources) {
     minDays = Math.min(minDays, s.minDays);
-    maxDays = Math.max(maxDays, s.maxDays);
+    maxDays = s.maxDays === null || maxDays === null ? null : Math.max(maxDays, s.maxDays);
     latestMin = Math.max(latestMin, s.minDays);
-    earliestMax = Math.min(earliestMax, s.maxDays);
+    earliestMax = Math.min(earliestMax, s.maxDays ?? Infinity);
   }
   const overlap = latestMin <= earliestMax;
   return {
@@ -65,7 +65,7 @@ export function reconcileSources(sources: readonly ProtocolSource[]): SourceReco
     maxDays,
     plannedDays: minDays,
     sourcesDisagree: !overlap,
-    agreedRange: overlap ? { minDays: latestMin, maxDays: earliestMax } : null,
+    agreedRange: overlap ? { minDays: latestMin, maxDays: Number.isFinite(earliestMax) ? earliestMax : null } : null,
     citations: sources.map((s) => s.citation),
   };
 }
@@ -89,7 +89,7 @@ export function reconcileProtocol(protocol: Pick<Protocol, "species" | "phases" 
     species: protocol.species,
     phases,
     timedPhases,
-    needsCold: timedPhases.some((p) => (p.kind === "cold_moist" || p.kind === "frozen") && p.maxDays > 0),
+    needsCold: timedPhases.some((p) => (p.kind === "cold_moist" || p.kind === "frozen") && (p.maxDays === null || p.maxDays > 0)),
     effectiveBand,
     optimumBand: findOptimumBand(effectiveBand),
     sourcesDisagree: phases.some((p) => p.sourcesDisagree),
@@ -99,7 +99,12 @@ export function reconcileProtocol(protocol: Pick<Protocol, "species" | "phases" 
 /** One line for the protocol card, e.g. "Cold-moist 14–70 days (sources disagree: plan 14, check daily from then)". */
 export function describeReconciledPhase(phase: ReconciledPhase, label: string): string {
   if (!phase.timed) return phase.note ? `${label}: ${phase.note}` : label;
-  const range = phase.minDays === phase.maxDays ? `${phase.minDays} days` : `${phase.minDays}–${phase.maxDays} days`;
+  const range =
+    phase.maxDays === null
+      ? `${phase.minDays} days or more`
+      : phase.minDays === phase.maxDays
+        ? `${phase.minDays} days`
+        : `${phase.minDays}–${phase.maxDays} days`;
   const disagree = phase.sourcesDisagree
     ? ` (sources disagree: plan for day ${phase.plannedDays} and check daily from then — common practice)`
     : "";

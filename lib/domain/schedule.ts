@@ -6,7 +6,8 @@ import { reconcileProtocol, type ReconciledProtocol } from "./protocols";
 
 export interface PullWindow {
   opensOn: IsoDay;
-  closesOn: IsoDay;
+  /** Null when a source sets no upper limit: the bag is never overdue, pull when roots show. */
+  closesOn: IsoDay | null;
   /** Common practice: plan the pull for the earliest date and check daily from then. */
   plannedPullOn: IsoDay;
   sourcesDisagree: boolean;
@@ -16,9 +17,9 @@ export interface BagPhasePlan {
   kind: PhaseKind;
   /** Earliest and latest day this phase can begin (earlier phases run their shortest or longest time). */
   startsOn: IsoDay;
-  startsLatestOn: IsoDay;
+  startsLatestOn: IsoDay | null;
   endsOn: IsoDay;
-  endsLatestOn: IsoDay;
+  endsLatestOn: IsoDay | null;
 }
 
 export interface BagPlan {
@@ -49,14 +50,14 @@ export function planBagPhases(
   if (timed.length === 0) return { phases: [], window: null, nextMoveOn: null, nextMoveTo: null };
   const phases: BagPhasePlan[] = [];
   let early = startedOn;
-  let late = startedOn;
+  let late: IsoDay | null = startedOn;
   timed.forEach((phase, i) => {
     if (i === timed.length - 1 && finalPhaseStartedOn) {
       early = finalPhaseStartedOn;
       late = finalPhaseStartedOn;
     }
     const endsOn = addDaysToIsoDay(early, phase.minDays);
-    const endsLatestOn = addDaysToIsoDay(late, phase.maxDays);
+    const endsLatestOn = late === null || phase.maxDays === null ? null : addDaysToIsoDay(late, phase.maxDays);
     phases.push({ kind: phase.kind, startsOn: early, startsLatestOn: late, endsOn, endsLatestOn });
     early = endsOn;
     late = endsLatestOn;
@@ -99,7 +100,7 @@ export function determineBagState(bag: BagRecord, window: PullWindow | null, tod
   if (bag.pulledOn) return "pulled";
   if (!bag.startedOn || bag.startedOn > today) return "planned";
   if (!window || today < window.opensOn) return "chilling";
-  if (today <= window.closesOn) return "window_open";
+  if (window.closesOn === null || today <= window.closesOn) return "window_open";
   return "overdue";
 }
 
@@ -191,7 +192,7 @@ export function scheduleNextCheck(input: NextCheckInput): NextCheck | null {
   const nextDay = addDaysToIsoDay(last, 1);
   if (window && nextDay >= window.opensOn) {
     on = nextDay;
-    reason = on > window.closesOn ? "overdue" : "window_daily";
+    reason = window.closesOn !== null && on > window.closesOn ? "overdue" : "window_daily";
     note = reason === "overdue" ? "Past the latest pull date: pull and sow, or note why it stays." : "Pull window open: check daily.";
   } else {
     const weekly = addDaysToIsoDay(last, cadence.everyDaysBeforeWindow);

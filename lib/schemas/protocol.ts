@@ -24,11 +24,12 @@ export const ProtocolSource = z
   .object({
     citation: z.string().trim().min(1, { error: "Say where these numbers come from (a book, paper, supplier or your own records)." }).max(500),
     minDays: wholeDays,
-    maxDays: wholeDays,
+    /** Null when the source gives no upper limit ("4 weeks or more"). */
+    maxDays: wholeDays.nullable(),
     band: TemperatureBand.nullable().default(null),
     note: z.string().trim().max(500).default(""),
   })
-  .refine((s) => s.minDays <= s.maxDays, { error: "The shortest time must not be longer than the longest.", path: ["maxDays"] });
+  .refine((s) => s.maxDays === null || s.minDays <= s.maxDays, { error: "The shortest time must not be longer than the longest.", path: ["maxDays"] });
 export type ProtocolSource = z.infer<typeof ProtocolSource>;
 
 /** Phases that take days in a bag; scarify and light are steps or needs without a duration. */
