@@ -1,0 +1,17 @@
+import type { HTMLAttributes } from "react";
+
+export function Card({ className = "", ...rest }: HTMLAttributes<HTMLDivElement>) {
+  return <div className={`rounded-card border border-rime-200 bg-white p-4 shadow-sm ${className}`} {...rest} />;
+}
+
+export function PageHeader({ title, subtitle, action }: { title: string; subtitle?: string; action?: React.ReactNode }) {
+  return (
+    <header className="mb-4 flex items-start justify-between gap-3">
+      <div>
+        <h1 className="text-title font-bold text-glacier-800">{title}</h1>
+        {subtitle ? <p className="text-label text-ink-soft">{subtitle}</p> : null}
+      </div>
+      {action}
+    </header>
+  );
+}
