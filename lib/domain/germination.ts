@@ -150,7 +150,8 @@ export function computeSynchrony(intervals: readonly GerminationCount[]): number
 export function computeUncertainty(intervals: readonly GerminationCount[]): number | null {
   const n = sumCounts(intervals);
   if (n === 0) return null;
-  return -intervals.reduce((s, c) => (c.count > 0 ? s + (c.count / n) * Math.log2(c.count / n) : s), 0);
+  // 0 − sum, not −sum: a single germination day gives 0, not −0.
+  return 0 - intervals.reduce((s, c) => (c.count > 0 ? s + (c.count / n) * Math.log2(c.count / n) : s), 0);
 }
 
 export function findGerminationDays(intervals: readonly GerminationCount[]): { firstDay: number | null; lastDay: number | null; peakDays: number[] } {
