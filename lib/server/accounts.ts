@@ -1,0 +1,101 @@
+import "server-only";
+import { randomUUID } from "node:crypto";
+import type { Knex } from "knex";
+import { AppError } from "@/lib/errors";
+import type { SignUpInput } from "@/lib/schemas/account";
+import type { Role } from "@/lib/schemas/vocabulary";
+import { hashPassword, verifyPassword } from "./passwords";
+import { installStarterProtocols } from "./protocols";
+import { assertSignInAllowed, recordSignInAttempt } from "./rate-limit";
+import { nextSeq } from "./seq";
+
+// Farms, people and their memberships. Writers take the transaction first.
+
+export type UserRow = { id: string; email: string; name: string; password_hash: string; created_at: string; updated_at: string; deleted_at: string | null };
+
+export const emailTaken = () =>
+  new AppError("conflict", "There is already a Rimebook account with this e-mail. Sign in instead, or reset the password.", {
+    email: "This e-mail already has an account.",
+  }, 409);
+
+export async function findUserByEmail(db: Knex | Knex.Transaction, email: string): Promise<UserRow | undefined> {
+  return db("users").where({ email: email.trim().toLowerCase() }).whereNull("deleted_at").first();
+}
+
+export async function createUser(trx: Knex.Transaction, input: { email: string; password: string; name: string }, now = new Date()): Promise<string> {
+  const email = input.email.trim().toLowerCase();
+  if (await trx("users").where({ email }).first("id")) throw emailTaken();
+  const id = randomUUID();
+  const at = now.toISOString();
+  await trx("users").insert({ id, email, name: input.name.trim(), password_hash: await hashPassword(input.password), created_at: at, updated_at: at });
+  return id;
+}
+
+/** A membership is a synced row (the team list reaches every phone), so it is stamped with seq. */
+export async function addMembership(trx: Knex.Transaction, input: { farmId: string; userId: string; role: Role }, now = new Date()): Promise<string> {
+  const at = now.toISOString();
+  const existing = await trx("memberships").where({ farm_id: input.farmId, user_id: input.userId }).first();
+  const seq = await nextSeq(trx, input.farmId);
+  if (existing) {
+    // Re-joining after removal: revive the row with the new role.
+    await trx("memberships").where({ id: existing.id }).update({ role: input.role, deleted_at: null, updated_at: at, seq });
+    return existing.id;
+  }
+  const id = randomUUID();
+  await trx("memberships").insert({ id, farm_id: input.farmId, user_id: input.userId, role: input.role, digest_opt_in: false, created_at: at, updated_at: at, seq, deleted_at: null });
+  return id;
+}
+
+/** Sign-up: a new farm, its Owner, and the starter protocol library. */
+export async function createFarmWithOwner(trx: Knex.Transaction, input: SignUpInput, now = new Date()): Promise<{ userId: string; farmId: string }> {
+  const at = now.toISOString();
+  const userId = await createUser(trx, input, now);
+  const farmId = randomUUID();
+  await trx("farms").insert({ id: farmId, name: input.farmName.trim(), seq: 0, created_at: at, updated_at: at });
+  await addMembership(trx, { farmId, userId, role: "owner" }, now);
+  await installStarterProtocols(trx, farmId, now);
+  return { userId, farmId };
+}
+
+/** The farms a person belongs to, the one they joined first first. */
+export async function farmsOf(db: Knex | Knex.Transaction, userId: string): Promise<{ id: string; name: string; role: Role }[]> {
+  return db("memberships as m")
+    .join("farms as f", "f.id", "m.farm_id")
+    .where({ "m.user_id": userId })
+    .whereNull("m.deleted_at")
+    .whereNull("f.deleted_at")
+    .orderBy("m.created_at", "asc")
+    .select("f.id", "f.name", "m.role");
+}
+
+// A fixed hash so an unknown e-mail costs the same scrypt work as a known one.
+let dummyHash: Promise<string> | null = null;
+const timingDummy = () => (dummyHash ??= hashPassword("rimebook-timing-dummy-password"));
+
+export const wrongCredentials = () =>
+  new AppError("unauthenticated", "That e-mail and password do not match an account. Check both and try again.", undefined, 401);
+
+/**
+ * Checks e-mail and password (rate-limited per account and per address) and picks the farm to
+ * open: `farmId` if the person belongs to it, else the first farm they joined.
+ */
+export async function authenticate(
+  db: Knex,
+  input: { email: string; password: string; farmId?: string; ip: string },
+  now = new Date(),
+): Promise<{ userId: string; farmId: string }> {
+  const keys = { email: input.email.trim().toLowerCase(), ip: input.ip };
+  await assertSignInAllowed(db, keys, now);
+  const user = await findUserByEmail(db, keys.email);
+  const ok = user ? await verifyPassword(input.password, user.password_hash) : (await verifyPassword(input.password, await timingDummy()), false);
+  await recordSignInAttempt(db, keys, ok, now);
+  if (!user || !ok) throw wrongCredentials();
+  const farms = await farmsOf(db, user.id);
+  const farm = (input.farmId && farms.find((f) => f.id === input.farmId)) || farms[0];
+  if (!farm) throw new AppError("forbidden", "This account is not a member of any farm any more. Ask a farm Owner for a new invite.", undefined, 403);
+  return { userId: user.id, farmId: farm.id };
+}
+
+export async function setPassword(trx: Knex.Transaction, userId: string, password: string, now = new Date()): Promise<void> {
+  await trx("users").where({ id: userId }).update({ password_hash: await hashPassword(password), updated_at: now.toISOString() });
+}

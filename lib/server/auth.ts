@@ -1,0 +1,144 @@
+import "server-only";
+import { AppError, forbidden, unauthenticated } from "@/lib/errors";
+import { canRun, type ActionName, type MutationName } from "@/lib/schemas/mutations";
+import type { Role } from "@/lib/schemas/vocabulary";
+import { env } from "./env";
+import { getDb } from "./db";
+import { SESSION_COOKIE, readSession, type IssuedSession } from "./sessions";
+
+// Every handler that touches a farm starts here: who is asking, on which farm, with which role,
+// always read from the database, never from what the client sends.
+
+export type Member = {
+  userId: string;
+  name: string;
+  email: string;
+  farmId: string;
+  farmName: string;
+  role: Role;
+  sessionId: string;
+  /** Set when the session was renewed: pass the response through `withSessionCookie`. */
+  renewed?: IssuedSession | null;
+};
+
+const SAFE_METHODS = new Set(["GET", "HEAD", "OPTIONS"]);
+
+/** The session cookie's value from a request, or null. */
+export function readSessionCookie(req: Request): string | null {
+  const header = req.headers.get("cookie");
+  if (!header) return null;
+  for (const part of header.split(";")) {
+    const eq = part.indexOf("=");
+    if (eq < 0) continue;
+    if (part.slice(0, eq).trim() === SESSION_COOKIE) {
+      const value = part.slice(eq + 1).trim();
+      try {
+        return decodeURIComponent(value) || null;
+      } catch {
+        return null;
+      }
+    }
+  }
+  return null;
+}
+
+/**
+ * Mutating requests must come from the app's own origin (Origin header, or Referer when a
+ * browser leaves Origin out). Safe methods pass.
+ */
+export function assertSameOrigin(req: Request): void {
+  if (SAFE_METHODS.has(req.method.toUpperCase())) return;
+  const expected = new URL(env.APP_ORIGIN).origin;
+  const origin = req.headers.get("origin");
+  let seen: string | null = null;
+  if (origin && origin !== "null") seen = origin;
+  else {
+    const referer = req.headers.get("referer");
+    if (referer) {
+      try {
+        seen = new URL(referer).origin;
+      } catch {
+        seen = null;
+      }
+    }
+  }
+  if (seen !== expected) {
+    throw new AppError("forbidden", "This request did not come from Rimebook itself, so it was refused.", undefined, 403);
+  }
+}
+
+/** The signed-in member or null (pages use this to decide between the app and the sign-in screen). */
+export async function findMember(token: string | null): Promise<Member | null> {
+  const active = await readSession(token);
+  if (!active) return null;
+  const { session } = active;
+  const row = await getDb()("memberships as m")
+    .join("users as u", "u.id", "m.user_id")
+    .join("farms as f", "f.id", "m.farm_id")
+    .where({ "m.farm_id": session.farm_id, "m.user_id": session.user_id })
+    .whereNull("m.deleted_at")
+    .whereNull("u.deleted_at")
+    .whereNull("f.deleted_at")
+    .first("u.id as userId", "u.name", "u.email", "f.id as farmId", "f.name as farmName", "m.role");
+  if (!row) return null;
+  return { ...row, role: row.role as Role, sessionId: session.id, renewed: active.renewed };
+}
+
+/**
+ * Authenticates the request (401 when the session is missing, tampered, revoked or expired),
+ * refuses cross-origin mutating requests (403), and checks `need` against the role table (403).
+ */
+export async function requireMember(req: Request, need?: MutationName | ActionName): Promise<Member> {
+  assertSameOrigin(req);
+  const member = await findMember(readSessionCookie(req));
+  if (!member) throw unauthenticated();
+  if (need && !canRun(member.role, need)) throw forbidden();
+  return member;
+}
+
+/** Set-Cookie value for a session token (httpOnly, SameSite=Lax, Secure on https). */
+export function sessionCookie(token: string, expiresAt: string): string {
+  const parts = [
+    `${SESSION_COOKIE}=${encodeURIComponent(token)}`,
+    "Path=/",
+    "HttpOnly",
+    "SameSite=Lax",
+    `Expires=${new Date(expiresAt).toUTCString()}`,
+    `Max-Age=${Math.max(0, Math.floor((Date.parse(expiresAt) - Date.now()) / 1000))}`,
+  ];
+  if (env.secureCookies) parts.push("Secure");
+  return parts.join("; ");
+}
+
+/** Set-Cookie value that removes the session cookie. */
+export function clearedSessionCookie(): string {
+  const parts = [`${SESSION_COOKIE}=`, "Path=/", "HttpOnly", "SameSite=Lax", "Expires=Thu, 01 Jan 1970 00:00:00 GMT", "Max-Age=0"];
+  if (env.secureCookies) parts.push("Secure");
+  return parts.join("; ");
+}
+
+/** Adds the session cookie to a response. */
+export function setSessionCookie<R extends Response>(res: R, session: { token: string; expiresAt: string }): R {
+  res.headers.append("Set-Cookie", sessionCookie(session.token, session.expiresAt));
+  return res;
+}
+
+/** Re-issues the cookie when requireMember renewed the session (rolling 30-day expiry). */
+export function withSessionCookie<R extends Response>(res: R, member: Pick<Member, "renewed">): R {
+  return member.renewed ? setSessionCookie(res, member.renewed) : res;
+}
+
+export function clearSessionCookie<R extends Response>(res: R): R {
+  res.headers.append("Set-Cookie", clearedSessionCookie());
+  return res;
+}
+
+/** The identity the phone keeps so it opens offline: {user, farm, role}. */
+export function identityOf(member: Member) {
+  return {
+    user: { id: member.userId, name: member.name, email: member.email },
+    farm: { id: member.farmId, name: member.farmName },
+    role: member.role,
+  };
+}
+export type Identity = ReturnType<typeof identityOf>;
