@@ -4,9 +4,9 @@ import path from "node:path";
 export default defineConfig({
   resolve: {
     alias: {
-      "@": path.resolve(__dirname),
+      "@": path.resolve(import.meta.dirname),
       // server-only throws outside a React Server bundle; tests import server modules directly.
-      "server-only": path.resolve(__dirname, "tests/support/server-only.ts"),
+      "server-only": path.resolve(import.meta.dirname, "tests/support/server-only.ts"),
     },
   },
   test: {
