@@ -1,3 +1,5 @@
+import { securityHeaders } from "./security-headers.mjs";
+
 /** @type {import('next').NextConfig} */
 const nextConfig = {
   reactStrictMode: true,
@@ -8,6 +10,10 @@ const nextConfig = {
   serverExternalPackages: ["knex", "better-sqlite3", "smtp-server", "nodemailer"],
   // `next dev` runs on Turbopack; production builds use webpack (`next build --webpack`) for the service worker.
   turbopack: {},
+  // CSP, referrer policy, framing, sniffing and camera permission for every response (security-headers.mjs).
+  async headers() {
+    return [{ source: "/:path*", headers: securityHeaders({ dev: process.env.NODE_ENV !== "production" }) }];
+  },
 };
 
 export default nextConfig;
