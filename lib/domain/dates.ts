@@ -41,9 +41,23 @@ export function isIsoDay(day: string): boolean {
   }
 }
 
+// A round of 10,000 bags asks for the same few hundred (day, offset) pairs; the answer never depends on the time zone.
+const addDaysCache = new Map<string, IsoDay>();
+
+/** Empties the memo (tests that switch time zones use it to prove the arithmetic itself is zone-proof). */
+export function clearDayArithmeticCache(): void {
+  addDaysCache.clear();
+}
+
 export function addDaysToIsoDay(day: IsoDay, days: number): IsoDay {
   if (!Number.isInteger(days)) throw new DomainError(`A number of days must be whole (got ${days}).`);
-  return formatIsoDay(addDays(parseIsoDay(day), days));
+  const key = `${day}|${days}`;
+  const cached = addDaysCache.get(key);
+  if (cached !== undefined) return cached;
+  const result = formatIsoDay(addDays(parseIsoDay(day), days));
+  if (addDaysCache.size >= 20_000) addDaysCache.clear();
+  addDaysCache.set(key, result);
+  return result;
 }
 
 /** Calendar days from `from` to `to` (positive when `to` is later). */

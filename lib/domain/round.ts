@@ -75,13 +75,10 @@ function findPriority(next: NextCheck, bag: RoundBag, state: BagState): number {
 
 const collator = new Intl.Collator("en", { numeric: true, sensitivity: "base" });
 
-function compareItems(a: RoundItem, b: RoundItem): number {
-  return (
-    a.priority - b.priority ||
-    collator.compare(a.bag.storeName, b.bag.storeName) ||
-    collator.compare(a.bag.box, b.bag.box) ||
-    collator.compare(a.bag.code, b.bag.code)
-  );
+/** Natural order ("Box 2" before "Box 10") computed once per distinct name, not once per comparison. */
+function rankNames(names: Iterable<string>): Map<string, number> {
+  const sorted = [...new Set(names)].sort(collator.compare);
+  return new Map(sorted.map((n, i) => [n, i]));
 }
 
 /** Computes the bags due on `today` (next check on or before it). Linear in bags plus one sort; shared by phone and server. */
@@ -102,7 +99,15 @@ export function buildTodaysRound(bags: readonly RoundBag[], today: IsoDay, caden
     const shown: NextCheck = isWindowOpening ? { ...next, reason: "window_opens", note: "Pull window opens today: start daily checks." } : next;
     items.push({ bag, state, next: shown, priority: findPriority(shown, bag, state), isLate: shown.on < today });
   }
-  items.sort(compareItems);
+  const storeRank = rankNames(items.map((i) => i.bag.storeName));
+  const boxRank = rankNames(items.map((i) => i.bag.box));
+  items.sort(
+    (a, b) =>
+      a.priority - b.priority ||
+      storeRank.get(a.bag.storeName)! - storeRank.get(b.bag.storeName)! ||
+      boxRank.get(a.bag.box)! - boxRank.get(b.bag.box)! ||
+      (a.bag.code < b.bag.code ? -1 : a.bag.code > b.bag.code ? 1 : 0),
+  );
 
   const storeMap = new Map<string, RoundStore>();
   const boxMaps = new Map<string, Map<string, RoundBox>>();
@@ -125,7 +130,7 @@ export function buildTodaysRound(bags: readonly RoundBag[], today: IsoDay, caden
     box.items.push(item);
   }
   const stores = [...storeMap.values()].sort(
-    (a, b) => a.topPriority - b.topPriority || collator.compare(a.storeName, b.storeName),
+    (a, b) => a.topPriority - b.topPriority || storeRank.get(a.storeName)! - storeRank.get(b.storeName)!,
   );
   return {
     date: today,
