@@ -16,10 +16,23 @@ import { Protocol } from "./protocol";
 // The single table of mutations: each name's argument schema and the least role that may run it.
 // The phone's outbox, the push route and the UI (hide what a role cannot do) all read this table.
 
-const patchOf = <T extends z.ZodObject>(patch: T) => z.object({ id: Id, patch });
+type StripDefault<S> = S extends z.ZodOptional<infer I> ? StripDefault<I> : S extends z.ZodDefault<infer I> ? StripDefault<I> : S;
+type EditShape<T extends z.ZodObject> = { [K in keyof T["shape"]]: z.ZodOptional<StripDefault<T["shape"][K]>> };
+
+/**
+ * Every field optional and WITHOUT its default: an edit carries only the fields the person changed,
+ * so applying it field by field never resets the others to their defaults.
+ */
+export function editOf<T extends z.ZodObject>(schema: T): z.ZodObject<EditShape<T>> {
+  const strip = (s: z.ZodType): z.ZodType => (s instanceof z.ZodOptional || s instanceof z.ZodDefault ? strip(s.unwrap() as z.ZodType) : s);
+  const shape = Object.fromEntries(Object.entries(schema.shape).map(([k, s]) => [k, strip(s as z.ZodType).optional()]));
+  return z.object(shape) as unknown as z.ZodObject<EditShape<T>>;
+}
+
+const patchOf = <T extends z.ZodObject>(patch: T) => z.object({ id: Id, patch: editOf(patch) });
 
 export const mutationTable = {
-  "farm.update": { minRole: "owner", args: FarmSettings.partial() },
+  "farm.update": { minRole: "owner", args: editOf(FarmSettings) },
   "member.preferences": { minRole: "viewer", args: z.object({ digest_opt_in: z.boolean() }) },
 
   "protocol.upsert": {
@@ -29,11 +42,11 @@ export const mutationTable = {
   "protocol.delete": { minRole: "grower", args: z.object({ id: Id }) },
 
   "lot.create": { minRole: "grower", args: LotInput },
-  "lot.update": { minRole: "grower", args: patchOf(LotInput.omit({ id: true }).partial()) },
+  "lot.update": { minRole: "grower", args: patchOf(LotInput.omit({ id: true })) },
   "lot.delete": { minRole: "grower", args: z.object({ id: Id }) },
 
   "store.create": { minRole: "grower", args: StoreInput },
-  "store.update": { minRole: "grower", args: patchOf(StoreInput.omit({ id: true }).partial()) },
+  "store.update": { minRole: "grower", args: patchOf(StoreInput.omit({ id: true })) },
   "store.delete": { minRole: "grower", args: z.object({ id: Id }) },
   "reading.record": { minRole: "helper", args: ReadingInput },
 
@@ -47,7 +60,7 @@ export const mutationTable = {
   "count.record": { minRole: "helper", args: CountInput },
 
   "trial.create": { minRole: "grower", args: TrialInput },
-  "trial.update": { minRole: "grower", args: patchOf(TrialInput.omit({ id: true, arms: true }).partial()) },
+  "trial.update": { minRole: "grower", args: patchOf(TrialInput.omit({ id: true, arms: true })) },
 
   "plan.upsert": { minRole: "grower", args: PlanItemInput },
   "plan.delete": { minRole: "grower", args: z.object({ id: Id }) },

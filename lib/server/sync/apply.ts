@@ -1,0 +1,219 @@
+import "server-only";
+import { randomUUID } from "node:crypto";
+import type { Knex } from "knex";
+import { ZodError } from "zod";
+import { AppError, notFound } from "@/lib/errors";
+import { canRun, mutationTable, type Mutation, type MutationName, type PushRequest } from "@/lib/schemas/mutations";
+import { effectsOf, rowReferences, sameValue, type Effect, type EffectTable, type RowValues } from "@/lib/schemas/mutation-effects";
+import type { ProtocolPhase } from "@/lib/schemas/protocol";
+import { vocabularyLabels, type Role } from "@/lib/schemas/vocabulary";
+import { fieldsOf } from "@/lib/server/http";
+import { nextSeq } from "@/lib/server/seq";
+import { auditText, parseRow, serializeRow } from "./rows";
+
+// Applies a phone's pushed mutations. Each runs in its own transaction together with its
+// applied_mutations row, so a push cut off half-way and sent again applies everything exactly
+// once, and one refused mutation never holds up the ones after it.
+
+export type PushMember = { userId: string; farmId: string; role: Role };
+export type RejectedMutation = { id: string; error: { code: string; message: string; fields?: Record<string, string> } };
+export type PushResult = { applied: string[]; rejected: RejectedMutation[] };
+
+/** Rejections the phone should simply send again later (nothing wrong with the mutation itself). */
+export const retryableCodes = new Set(["server_error"]);
+
+type Ctx = { trx: Knex.Transaction; member: PushMember; mutationId: string; at: string };
+
+export async function applyPush(db: Knex, member: PushMember, push: PushRequest, now: () => Date = () => new Date()): Promise<PushResult> {
+  const result: PushResult = { applied: [], rejected: [] };
+  for (const m of push.mutations) {
+    const outcome = await applyOne(db, member, push.deviceId, m, now().toISOString());
+    if (outcome === "applied") result.applied.push(m.id);
+    else result.rejected.push({ id: m.id, error: outcome });
+  }
+  return result;
+}
+
+async function applyOne(db: Knex, member: PushMember, deviceId: string, m: Mutation, at: string): Promise<"applied" | RejectedMutation["error"]> {
+  const seen = await db("applied_mutations").where({ id: m.id }).first("farm_id", "outcome");
+  if (seen && seen.farm_id !== member.farmId) return { code: "conflict", message: "This change's id is already taken. It was not saved." };
+  if (seen?.outcome === "applied") return "applied"; // a replay: report it, change nothing
+
+  const record = (trx: Knex | Knex.Transaction, outcome: "applied" | "rejected", error: unknown = null) =>
+    trx("applied_mutations")
+      .insert({
+        id: m.id,
+        farm_id: member.farmId,
+        user_id: member.userId,
+        device_id: deviceId,
+        name: m.name,
+        applied_at: at,
+        outcome,
+        error: error ? JSON.stringify(error) : null,
+      })
+      .onConflict("id")
+      .merge();
+
+  let error: RejectedMutation["error"];
+  try {
+    const args = mutationTable[m.name].args.parse(m.args);
+    if (!canRun(member.role, m.name)) {
+      throw new AppError("forbidden", `A ${vocabularyLabels.role[member.role]} cannot do this (${describe(m.name)}). Ask the farm's owner.`);
+    }
+    await db.transaction(async (trx) => {
+      const ctx: Ctx = { trx, member, mutationId: m.id, at };
+      for (const effect of effectsOf(m.name, args as never)) await applyEffect(ctx, effect);
+      await record(trx, "applied");
+    });
+    return "applied";
+  } catch (err) {
+    if (err instanceof ZodError) {
+      error = { code: "invalid", message: `Some of this ${describe(m.name)} is not right.`, fields: fieldsOf(err) };
+    } else if (err instanceof AppError) {
+      error = { code: err.code, message: err.message, ...(err.fields ? { fields: err.fields } : {}) };
+    } else {
+      console.error("[rimebook] push: unexpected error applying", m.name, err);
+      return { code: "server_error", message: "The server could not save this change just now; it will be sent again." };
+    }
+  }
+  await record(db, "rejected", error);
+  return error;
+}
+
+function describe(name: MutationName): string {
+  const [entity, verb] = name.split(".");
+  return `${entity} ${verb}`.replace("plan ", "plan item ");
+}
+
+/** The row must be this farm's: a row of another farm is reported as missing, never as someone else's. */
+async function ownRow(ctx: Ctx, table: EffectTable, id: string): Promise<Record<string, unknown> | undefined> {
+  const row = await ctx.trx(table).where({ id }).first();
+  if (row && row.farm_id !== ctx.member.farmId) throw notFound(labelOf(table));
+  return row;
+}
+
+async function assertReferences(ctx: Ctx, table: EffectTable, values: Record<string, unknown>): Promise<void> {
+  for (const [column, target] of Object.entries(rowReferences[table] ?? {})) {
+    const id = values[column];
+    if (id === null || id === undefined) continue;
+    const row = await ctx.trx(target).where({ id, farm_id: ctx.member.farmId }).first("id");
+    if (!row) throw notFound(labelOf(target));
+  }
+}
+
+async function applyEffect(ctx: Ctx, e: Effect): Promise<void> {
+  switch (e.op) {
+    case "insert":
+      return insertRow(ctx, e.table, e.row);
+    case "upsert": {
+      const existing = await ownRow(ctx, e.table, e.row.id);
+      if (!existing) return insertRow(ctx, e.table, e.row);
+      const { id, ...fields } = e.row;
+      return patchRow(ctx, e.table, existing, { ...fields, deleted_at: null }, false);
+    }
+    case "patch": {
+      const existing = await ownRow(ctx, e.table, e.id);
+      if (!existing || existing.deleted_at) throw notFound(labelOf(e.table));
+      return patchRow(ctx, e.table, existing, e.fields, e.fillOnly ?? false);
+    }
+    case "tombstone": {
+      const existing = await ownRow(ctx, e.table, e.id);
+      if (!existing) throw notFound(labelOf(e.table));
+      if (existing.deleted_at) return;
+      return patchRow(ctx, e.table, existing, { deleted_at: ctx.at }, false);
+    }
+    case "farm":
+      return patchFarm(ctx, e.fields);
+    case "own_membership": {
+      const existing = await ctx.trx("memberships").where({ farm_id: ctx.member.farmId, user_id: ctx.member.userId }).whereNull("deleted_at").first();
+      if (!existing) throw notFound("Your membership");
+      return patchRow(ctx, "memberships", existing, e.fields, false);
+    }
+  }
+}
+
+async function insertRow(ctx: Ctx, table: EffectTable, row: RowValues): Promise<void> {
+  const { trx, member, at } = ctx;
+  // Same row id sent again under another mutation id (e.g. a re-queued check): keep the first.
+  if (await ownRow(ctx, table, row.id)) return;
+  await assertReferences(ctx, table, row);
+  if (table === "readings") {
+    const twin = await trx("readings").where({ store_id: row.store_id, taken_at: row.taken_at }).first("id");
+    if (twin) return; // a reading at the same moment in the same store is already recorded
+  }
+  if (table === "bags") {
+    const twin = await trx("bags").where({ farm_id: member.farmId, code: row.code }).first("id");
+    if (twin) {
+      throw new AppError("conflict", `Another bag already has the code ${String(row.code)}. Give this bag a new label.`, { code: "This code is taken." });
+    }
+  }
+  const seq = await nextSeq(trx, member.farmId);
+  const stamped: Record<string, unknown> = { ...row, farm_id: member.farmId, created_at: at, updated_at: at, seq, deleted_at: null };
+  if (table === "checks") stamped.checked_by = member.userId;
+  await trx(table).insert(serializeRow(table, stamped));
+  if (table === "protocols") await replaceProtocolSources(ctx, row.id, row.phases as ProtocolPhase[], seq);
+}
+
+/** Later arrival wins field by field; each value it replaces is kept in audit_log. */
+async function patchRow(ctx: Ctx, table: EffectTable, stored: Record<string, unknown>, fields: Record<string, unknown>, fillOnly: boolean): Promise<void> {
+  const { trx, member, at } = ctx;
+  const current = parseRow(table, stored);
+  const changed = Object.entries(fields).filter(([k, v]) => k !== "id" && !sameValue(current[k], v) && (!fillOnly || current[k] === null || current[k] === undefined));
+  if (changed.length === 0) return;
+  await assertReferences(ctx, table, Object.fromEntries(changed));
+  const seq = await nextSeq(trx, member.farmId);
+  const values = Object.fromEntries(changed);
+  await trx(table).where({ id: stored.id }).update(serializeRow(table, { ...values, updated_at: at, seq }));
+  await trx("audit_log").insert(
+    changed.map(([field, value]) => ({
+      farm_id: member.farmId,
+      table_name: table,
+      row_id: String(stored.id),
+      field,
+      old_value: auditText(current[field]),
+      new_value: auditText(value),
+      mutation_id: ctx.mutationId,
+      user_id: member.userId,
+      at,
+      seq,
+    })),
+  );
+  if (table === "protocols" && "phases" in values) await replaceProtocolSources(ctx, String(stored.id), values.phases as ProtocolPhase[], seq);
+}
+
+async function patchFarm(ctx: Ctx, fields: Record<string, unknown>): Promise<void> {
+  const { trx, member, at } = ctx;
+  const farm = await trx("farms").where({ id: member.farmId }).first();
+  if (!farm) throw notFound("The farm");
+  const changed = Object.entries(fields).filter(([k, v]) => !sameValue(farm[k], v));
+  if (changed.length === 0) return;
+  const seq = await nextSeq(trx, member.farmId);
+  await trx("farms").where({ id: member.farmId }).update({ ...Object.fromEntries(changed), updated_at: at });
+  await trx("audit_log").insert(
+    changed.map(([field, value]) => ({
+      farm_id: member.farmId, table_name: "farms", row_id: member.farmId, field,
+      old_value: auditText(farm[field]), new_value: auditText(value), mutation_id: ctx.mutationId, user_id: member.userId, at, seq,
+    })),
+  );
+}
+
+/** protocol_sources is derived from the phases (searchable sources); old rows are tombstoned. */
+async function replaceProtocolSources(ctx: Ctx, protocolId: string, phases: ProtocolPhase[], seq: number): Promise<void> {
+  const { trx, member, at } = ctx;
+  await trx("protocol_sources").where({ protocol_id: protocolId }).whereNull("deleted_at").update({ deleted_at: at, updated_at: at, seq });
+  const rows = phases.flatMap((phase, phaseIndex) =>
+    phase.sources.map((s) => ({
+      id: randomUUID(), farm_id: member.farmId, created_at: at, updated_at: at, seq, deleted_at: null,
+      protocol_id: protocolId, phase_index: phaseIndex, citation: s.citation, min_days: s.minDays, max_days: s.maxDays,
+      band_min_c: s.band?.minC ?? null, band_max_c: s.band?.maxC ?? null, note: s.note || null,
+    })),
+  );
+  if (rows.length) await trx("protocol_sources").insert(rows);
+}
+
+const tableLabels: Record<EffectTable, string> = {
+  protocols: "That protocol", lots: "That seed lot", stores: "That cold store", readings: "That reading", bags: "That bag",
+  checks: "That check", photos: "That photo", sowings: "That sowing", counts: "That count", trials: "That trial",
+  trial_arms: "That trial arm", plan_items: "That plan item", memberships: "That member",
+};
+const labelOf = (table: EffectTable) => tableLabels[table];
