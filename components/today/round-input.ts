@@ -1,0 +1,102 @@
+import { buildBagRows, type BagRow, type BagRowSources } from "@/components/bags/bag-rows";
+import { readProtocolRow } from "@/components/protocols/protocol-row";
+import { formatIsoDay, type IsoDay } from "@/lib/domain/dates";
+import { buildTodaysRound, type RoundBag, type TodaysRound } from "@/lib/domain/round";
+import { defaultCheckCadence, planBagPhases, type CheckCadence, type CheckFindings, type NextCheckReason } from "@/lib/domain/schedule";
+import type { Check } from "@/lib/schemas/check";
+
+// From the phone store's rows to lib/domain's round: no numbers are worked out here, only the shapes change.
+
+export type LastCheckRow = Pick<Check, "bag_id" | "checked_at" | "moisture" | "mould" | "sprouts" | "actions">;
+
+/** The day a check was made, on the phone's own calendar (a check at 00:30 belongs to that morning). */
+export function dayOfTimestamp(at: string): IsoDay {
+  return formatIsoDay(new Date(at));
+}
+
+export function toCheckFindings(row: LastCheckRow): CheckFindings {
+  return { on: dayOfTimestamp(row.checked_at), moisture: row.moisture, mould: row.mould, sprouts: row.sprouts, actions: row.actions ?? [] };
+}
+
+/** The farm's weekly rhythm (settings) over the default follow-ups. */
+export function cadenceFor(weeklyCheckDays: number | null | undefined): CheckCadence {
+  const days = weeklyCheckDays && Number.isInteger(weeklyCheckDays) && weeklyCheckDays >= 1 ? weeklyCheckDays : defaultCheckCadence.everyDaysBeforeWindow;
+  return { ...defaultCheckCadence, everyDaysBeforeWindow: days };
+}
+
+const inTheCold = new Set(["chilling", "window_open", "overdue"]);
+export const noStoreId = "no-store";
+
+/** A bag row as lib/domain's round wants it, with its last check and the day it moves phase (warm → cold). */
+export function toRoundBag(
+  row: BagRow,
+  bag: Pick<BagRowSources["bags"][number], "pulled_on" | "sown_on" | "discarded_on"> | undefined,
+  lastCheck: LastCheckRow | null,
+  nextMoveOn: IsoDay | null,
+): RoundBag {
+  return {
+    id: row.id,
+    code: row.code,
+    storeId: row.storeId ?? noStoreId,
+    storeName: row.storeName,
+    box: row.box || "No box",
+    species: row.commonName ? `${row.species} (${row.commonName})` : row.species,
+    startedOn: row.startedOn,
+    pulledOn: bag?.pulled_on ?? null,
+    sownOn: bag?.sown_on ?? null,
+    discardedOn: bag?.discarded_on ?? null,
+    window: row.window,
+    lastCheck: lastCheck ? toCheckFindings(lastCheck) : null,
+    nextMoveOn,
+  };
+}
+
+/** When a warm-then-cold bag should move to the cold store, from its protocol. */
+export function findNextMoveOn(row: Pick<BagRow, "startedOn">, protocol: BagRowSources["protocols"][number] | null): IsoDay | null {
+  if (!row.startedOn || !protocol || protocol.deleted_at) return null;
+  return planBagPhases(readProtocolRow(protocol), row.startedOn).nextMoveOn;
+}
+
+/** The round for `today` from the phone store's rows. `lastChecks`: each bag's latest check. */
+export function buildRoundFromRows(
+  sources: BagRowSources,
+  lastChecks: ReadonlyMap<string, LastCheckRow>,
+  today: IsoDay,
+  cadence?: CheckCadence,
+): TodaysRound {
+  const protocolById = new Map(sources.protocols.map((p) => [p.id, p]));
+  const lotById = new Map(sources.lots.map((l) => [l.id, l]));
+  const bagById = new Map(sources.bags.map((b) => [b.id, b]));
+  const roundBags: RoundBag[] = [];
+  for (const row of buildBagRows(sources, today)) {
+    if (!inTheCold.has(row.state)) continue;
+    const bag = bagById.get(row.id);
+    const protocolId = bag?.protocol_id ?? lotById.get(row.lotId)?.protocol_id ?? null;
+    const protocol = protocolId ? (protocolById.get(protocolId) ?? null) : null;
+    roundBags.push(toRoundBag(row, bag, lastChecks.get(row.id) ?? null, findNextMoveOn(row, protocol)));
+  }
+  return buildTodaysRound(roundBags, today, cadence);
+}
+
+/** The summary chips at the top of Today, most urgent first; reasons with no bags are left out. */
+export const reasonLabels: Record<NextCheckReason, string> = {
+  discard_now: "Mould spreading",
+  pull_now: "Roots showing",
+  overdue: "Past latest pull",
+  window_opens: "Window opens",
+  follow_up: "Follow-up",
+  move_to_next_phase: "Move to cold",
+  window_daily: "Window open",
+  weekly: "Routine",
+};
+
+export function summarizeRound(round: TodaysRound): { reason: NextCheckReason; label: string; count: number }[] {
+  return (Object.keys(reasonLabels) as NextCheckReason[])
+    .filter((r) => (round.counts.byReason[r] ?? 0) > 0)
+    .map((reason) => ({ reason, label: reasonLabels[reason], count: round.counts.byReason[reason]! }));
+}
+
+/** Bags in a store group, for the group's count. */
+export function countStoreBags(store: TodaysRound["stores"][number]): number {
+  return store.boxes.reduce((n, b) => n + b.items.length, 0);
+}
