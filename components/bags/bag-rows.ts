@@ -1,0 +1,238 @@
+import type { Bag } from "@/lib/schemas/bag";
+import type { Lot } from "@/lib/schemas/lot";
+import type { Store } from "@/lib/schemas/store";
+import type { ProtocolRow } from "@/lib/client/db";
+import type { BagState, Medium } from "@/lib/schemas/vocabulary";
+import { bagStates } from "@/lib/schemas/vocabulary";
+import {
+  addDaysToIsoDay,
+  computePullWindow,
+  determineBagState,
+  formatBagCode,
+  type IsoDay,
+  type PullWindow,
+} from "@/lib/domain";
+import { readProtocolRow } from "@/components/protocols/protocol-row";
+
+// Pure helpers behind the bags table: one row per bag with its state and window worked out on the phone
+// (never stored), plus the filter chips and the sort orders. No React here, so tests run without a DOM.
+
+export interface BagRow {
+  id: string;
+  code: string;
+  /** "K7M-4QZX": easier to read aloud. */
+  codeShown: string;
+  lotId: string;
+  species: string;
+  commonName: string;
+  storeId: string | null;
+  storeName: string;
+  box: string;
+  medium: Medium;
+  seedCount: number | null;
+  startedOn: IsoDay | null;
+  plannedStartOn: IsoDay | null;
+  window: PullWindow | null;
+  state: BagState;
+}
+
+/** The bag's pull window: from its protocol when it has one, else the window stored when it was last written. */
+export function findBagWindow(bag: Pick<Bag, "start_date" | "window_start" | "window_end">, protocol: ProtocolRow | null): PullWindow | null {
+  if (bag.start_date && protocol && !protocol.deleted_at) {
+    const computed = computePullWindow(readProtocolRow(protocol), bag.start_date);
+    if (computed) return computed;
+  }
+  if (!bag.window_start) return null;
+  return { opensOn: bag.window_start, closesOn: bag.window_end ?? null, plannedPullOn: bag.window_start, sourcesDisagree: false };
+}
+
+export interface BagRowSources {
+  bags: readonly Bag[];
+  lots: readonly Lot[];
+  protocols: readonly ProtocolRow[];
+  stores: readonly Store[];
+}
+
+/** One row per live bag; state comes from lib/domain for `today`. */
+export function buildBagRows({ bags, lots, protocols, stores }: BagRowSources, today: IsoDay): BagRow[] {
+  const lotById = new Map(lots.map((l) => [l.id, l]));
+  const protocolById = new Map(protocols.map((p) => [p.id, p]));
+  const storeById = new Map(stores.map((s) => [s.id, s]));
+  const rows: BagRow[] = [];
+  for (const bag of bags) {
+    if (bag.deleted_at) continue;
+    const lot = lotById.get(bag.lot_id);
+    const protocolId = bag.protocol_id ?? lot?.protocol_id ?? null;
+    const protocol = protocolId ? (protocolById.get(protocolId) ?? null) : null;
+    const window = findBagWindow(bag, protocol);
+    const store = bag.store_id ? storeById.get(bag.store_id) : undefined;
+    rows.push({
+      id: bag.id,
+      code: bag.code,
+      codeShown: formatBagCode(bag.code),
+      lotId: bag.lot_id,
+      species: lot?.species ?? "Unknown lot",
+      commonName: lot?.common_name ?? "",
+      storeId: bag.store_id ?? null,
+      storeName: store?.name ?? (bag.store_id ? "Unknown store" : "No store"),
+      box: bag.box ?? "",
+      medium: bag.medium,
+      seedCount: bag.seed_count ?? null,
+      startedOn: bag.start_date ?? null,
+      plannedStartOn: bag.planned_start_date ?? null,
+      window,
+      state: determineBagState(
+        { startedOn: bag.start_date ?? null, pulledOn: bag.pulled_on, sownOn: bag.sown_on, discardedOn: bag.discarded_on },
+        window,
+        today,
+      ),
+    });
+  }
+  return rows;
+}
+
+// ---- Filters -------------------------------------------------------------------------------------
+
+export const windowFilters = ["opens_this_week", "open_now", "closes_this_week", "past_latest", "no_window"] as const;
+export type WindowFilter = (typeof windowFilters)[number];
+export const windowFilterLabels: Record<WindowFilter, string> = {
+  opens_this_week: "Opens within 7 days",
+  open_now: "Open now",
+  closes_this_week: "Closes within 7 days",
+  past_latest: "Past latest pull",
+  no_window: "No window",
+};
+
+/** States still in the fridge or about to be: the table opens on these. */
+export const activeStates: readonly BagState[] = ["planned", "chilling", "window_open", "overdue"];
+
+export interface BagFilters {
+  /** Empty means every state. */
+  states: readonly BagState[];
+  storeIds: readonly string[];
+  species: readonly string[];
+  window: WindowFilter | null;
+  /** Free text matched against code, species, common name, store and box. */
+  text: string;
+}
+
+export const emptyBagFilters: BagFilters = { states: [], storeIds: [], species: [], window: null, text: "" };
+export const defaultBagFilters: BagFilters = { ...emptyBagFilters, states: activeStates };
+
+const isLive = (s: BagState) => s === "chilling" || s === "window_open" || s === "overdue";
+
+/** Whether a row falls in a window filter on `today`. Only bags still in the cold have an open or closing window. */
+export function matchesWindowFilter(row: Pick<BagRow, "window" | "state">, filter: WindowFilter, today: IsoDay): boolean {
+  const w = row.window;
+  if (filter === "no_window") return w === null;
+  if (!w) return false;
+  const weekAhead = addDaysToIsoDay(today, 7);
+  switch (filter) {
+    case "opens_this_week":
+      return (row.state === "chilling" || row.state === "planned") && w.opensOn > today && w.opensOn <= weekAhead;
+    case "open_now":
+      return row.state === "window_open";
+    case "closes_this_week":
+      return isLive(row.state) && w.closesOn !== null && w.closesOn >= today && w.closesOn <= weekAhead;
+    case "past_latest":
+      return row.state === "overdue";
+  }
+}
+
+function normalizeText(s: string): string {
+  return s.toLowerCase().replace(/[\s-]+/g, "");
+}
+
+export function filterBagRows(rows: readonly BagRow[], filters: BagFilters, today: IsoDay): BagRow[] {
+  const text = normalizeText(filters.text.trim());
+  return rows.filter((r) => {
+    if (filters.states.length && !filters.states.includes(r.state)) return false;
+    if (filters.storeIds.length && !filters.storeIds.includes(r.storeId ?? "")) return false;
+    if (filters.species.length && !filters.species.includes(r.species)) return false;
+    if (filters.window && !matchesWindowFilter(r, filters.window, today)) return false;
+    if (text) {
+      const hay = normalizeText([r.code, r.species, r.commonName, r.storeName, r.box].join(" "));
+      if (!hay.includes(text)) return false;
+    }
+    return true;
+  });
+}
+
+/** Toggles one value in a chip group (immutable). */
+export function toggleChip<T>(values: readonly T[], value: T): T[] {
+  return values.includes(value) ? values.filter((v) => v !== value) : [...values, value];
+}
+
+/** Counts per state among rows, for the chip labels. */
+export function countByState(rows: readonly BagRow[]): Record<BagState, number> {
+  const out = Object.fromEntries(bagStates.map((s) => [s, 0])) as Record<BagState, number>;
+  for (const r of rows) out[r.state]++;
+  return out;
+}
+
+// ---- Sorting -------------------------------------------------------------------------------------
+
+export const bagSortKeys = ["window", "state", "species", "store", "code", "started"] as const;
+export type BagSortKey = (typeof bagSortKeys)[number];
+export const bagSortLabels: Record<BagSortKey, string> = {
+  window: "Pull window",
+  state: "State",
+  species: "Species",
+  store: "Store and box",
+  code: "Bag code",
+  started: "Start date",
+};
+
+const collator = new Intl.Collator("en", { numeric: true, sensitivity: "base" });
+/** Lifecycle order, with the bags that need hands first among those in the cold. */
+const stateOrder: Record<BagState, number> = { overdue: 0, window_open: 1, chilling: 2, planned: 3, pulled: 4, sown: 5, discarded: 6 };
+
+/** Missing values sort last in both directions' natural reading: compare returns them as "greater". */
+function compareDays(a: IsoDay | null, b: IsoDay | null): number {
+  if (a === b) return 0;
+  if (a === null) return 1;
+  if (b === null) return -1;
+  return a < b ? -1 : 1;
+}
+
+/** Ascending comparison for one key; ties fall back to the bag code so the order is stable. */
+export function compareBagRows(key: BagSortKey, a: BagRow, b: BagRow): number {
+  let c = 0;
+  switch (key) {
+    case "window":
+      c = compareDays(a.window?.opensOn ?? null, b.window?.opensOn ?? null) || compareDays(a.window?.closesOn ?? null, b.window?.closesOn ?? null);
+      break;
+    case "state":
+      c = stateOrder[a.state] - stateOrder[b.state] || compareDays(a.window?.opensOn ?? null, b.window?.opensOn ?? null);
+      break;
+    case "species":
+      c = collator.compare(a.species, b.species);
+      break;
+    case "store":
+      c = collator.compare(a.storeName, b.storeName) || collator.compare(a.box, b.box);
+      break;
+    case "code":
+      c = 0;
+      break;
+    case "started":
+      c = compareDays(a.startedOn ?? a.plannedStartOn, b.startedOn ?? b.plannedStartOn);
+      break;
+  }
+  return c || collator.compare(a.code, b.code);
+}
+
+export function sortBagRows(rows: readonly BagRow[], key: BagSortKey, descending = false): BagRow[] {
+  const sign = descending ? -1 : 1;
+  return [...rows].sort((a, b) => sign * compareBagRows(key, a, b));
+}
+
+/** Short words for a row's window, e.g. "Opens 12 Mar" / "Open until 20 Mar" / "No window". */
+export function describeRowWindow(row: Pick<BagRow, "window" | "state">, formatDay: (d: IsoDay) => string): string {
+  const w = row.window;
+  if (!w) return "No window";
+  const closes = w.closesOn ? formatDay(w.closesOn) : "roots show";
+  if (row.state === "window_open") return `Open until ${closes}`;
+  if (row.state === "overdue") return `Latest was ${closes}`;
+  if (row.state === "chilling" || row.state === "planned") return `Opens ${formatDay(w.opensOn)}`;
+  return `${formatDay(w.opensOn)} – ${w.closesOn ? formatDay(w.closesOn) : "open-ended"}`;
+}

@@ -1,0 +1,62 @@
+import type { ProtocolRow } from "@/lib/client/db";
+import type { Protocol } from "@/lib/schemas/protocol";
+import { starterProtocols, type StarterProtocol } from "@/lib/domain/starter-protocols";
+
+// The phone stores protocols as snake_case rows; lib/domain and the Protocol schema use camelCase.
+
+/** The Protocol shape of a stored row (for reconcileProtocol, computePullWindow and the edit form). */
+export function readProtocolRow(row: ProtocolRow): Protocol {
+  return {
+    species: row.species,
+    commonName: row.common_name ?? "",
+    phases: Array.isArray(row.phases) ? row.phases : [],
+    effectiveBand: row.effective_band ?? null,
+    isFarmOwn: Boolean(row.is_farm_own),
+    noColdReason: row.no_cold_reason ?? "",
+    toxicSeed: row.toxic_seed ?? null,
+    medicinal: Boolean(row.medicinal),
+    note: row.note ?? "",
+  };
+}
+
+/** The starter library row a stored protocol was installed from, if any (it keeps citations for rows without phases). */
+export function findStarterFor(row: Pick<ProtocolRow, "starter_key">): StarterProtocol | null {
+  if (!row.starter_key) return null;
+  return starterProtocols.find((s) => s.key === row.starter_key) ?? null;
+}
+
+/** Every citation behind a protocol row: its phases' sources, plus the starter row's own (e.g. "none required" rows). */
+export function listProtocolCitations(row: ProtocolRow): string[] {
+  const fromPhases = readProtocolRow(row).phases.flatMap((p) => p.sources.map((s) => s.citation));
+  const fromStarter = findStarterFor(row)?.citations ?? [];
+  return [...new Set([...fromPhases, ...fromStarter])];
+}
+
+function genusOf(species: string): string {
+  return species.trim().split(/\s+/)[0]?.toLowerCase() ?? "";
+}
+
+function isGenusOnly(species: string): boolean {
+  const words = species.trim().split(/\s+/);
+  return words.length === 1 || /^spp?\.?$/i.test(words[1] ?? "");
+}
+
+/**
+ * The protocol a lot of this species would use: the same species (the farm's own first), else a genus-wide row
+ * ("Sambucus spp.") when either name names only the genus.
+ */
+export function matchProtocolBySpecies<T extends Pick<ProtocolRow, "species" | "is_farm_own" | "deleted_at">>(
+  species: string,
+  protocols: readonly T[],
+): T | null {
+  const live = protocols.filter((p) => !p.deleted_at);
+  const wanted = species.trim().toLowerCase();
+  const byOwnFirst = (a: T, b: T) => Number(Boolean(b.is_farm_own)) - Number(Boolean(a.is_farm_own));
+  const exact = live.filter((p) => p.species.trim().toLowerCase() === wanted).sort(byOwnFirst);
+  if (exact.length) return exact[0];
+  const genus = genusOf(species);
+  const byGenus = live
+    .filter((p) => genusOf(p.species) === genus && (isGenusOnly(p.species) || isGenusOnly(species)))
+    .sort(byOwnFirst);
+  return byGenus[0] ?? null;
+}
