@@ -4,7 +4,9 @@ import { canRun, type ActionName, type MutationName } from "@/lib/schemas/mutati
 import type { Role } from "@/lib/schemas/vocabulary";
 import { env } from "./env";
 import { getDb } from "./db";
-import { SESSION_COOKIE, readSession, type IssuedSession } from "./sessions";
+import { NextResponse } from "next/server";
+import { SESSION_COOKIE, createSession, readSession, type IssuedSession } from "./sessions";
+import { farmsOf } from "./accounts";
 
 // Every handler that touches a farm starts here: who is asking, on which farm, with which role,
 // always read from the database, never from what the client sends.
@@ -142,3 +144,12 @@ export function identityOf(member: Member) {
   };
 }
 export type Identity = ReturnType<typeof identityOf>;
+
+/** Starts a session for a person on a farm and answers with their identity and the cookie. */
+export async function signedInResponse(req: Request, who: { userId: string; farmId: string }, status = 200): Promise<Response> {
+  const issued = await createSession(getDb(), { ...who, userAgent: req.headers.get("user-agent") });
+  const member = await findMember(issued.token);
+  if (!member) throw unauthenticated();
+  const farms = await farmsOf(getDb(), who.userId);
+  return setSessionCookie(NextResponse.json({ ...identityOf(member), farms }, { status }), issued);
+}

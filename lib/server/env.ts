@@ -13,6 +13,7 @@ const EnvSchema = z
     UPLOAD_DIR: z.string().min(1).default("data/uploads"),
     CRON_SECRET: z.string().min(8).optional(),
     MAILBOX_PAGE: z.enum(["on", "off"]).optional(),
+    MAILBOX_DIR: z.string().min(1).default("data/mailbox"), // where the local SMTP fake stores captured mail
   })
   .transform((env, ctx) => {
     // `next build` loads route modules to collect page data; the secret is only needed when serving.
