@@ -106,12 +106,14 @@ export interface CsvTable {
   lines: CsvLine[];
 }
 
-const delimiters = [",", ";", "\t", "|"] as const;
+// Tried in this order: a header that reads well split on tabs or semicolons is rarely a comma file
+// (a semicolon file often writes decimal commas, "39,2").
+const delimiters = ["\t", ";", ",", "|"] as const;
 const maxPreambleLines = 60;
 
-function splitNaively(line: string, delimiter: string): string[] {
-  // Good enough to recognise a header line; the real parse below is papaparse's.
-  return line.split(delimiter).map((c) => c.trim().replace(/^"(.*)"$/, "$1").trim());
+function splitLine(line: string, delimiter: string): string[] {
+  const row = Papa.parse<string[]>(line, { delimiter, newline: "\n" }).data[0] ?? [];
+  return row.map((c) => (typeof c === "string" ? c.trim() : ""));
 }
 
 /**
@@ -132,8 +134,9 @@ export function readCsvTable(
     if (!test) continue;
     for (let i = 0; i < firstLines.length; i++) {
       for (const d of delimiters) {
-        if (!firstLines[i].includes(d)) continue;
-        if (test(splitNaively(firstLines[i], d))) {
+        // A one-column file (a list of species) has no delimiter at all: read it as commas.
+        if (!firstLines[i].includes(d) && d !== ",") continue;
+        if (test(splitLine(firstLines[i], d))) {
           start = { index: i, delimiter: d, header: kind === "header" };
           break search;
         }
@@ -295,7 +298,7 @@ function parseTimestampParts(text: string, dateOrder: DateOrder | null): Parsed<
     const year = m[3].length === 2 ? 2000 + Number(m[3]) : Number(m[3]);
     const [day, month] = dateOrder === "dmy" ? [a, b] : [b, a];
     const bad = checkCalendar(year, month, day);
-    if (bad) return { ok: false, error: `${bad} (read as ${dateOrder === "dmy" ? "day-first" : "month-first"})` };
+    if (bad) return { ok: false, error: `${bad.replace(/\.$/, "")} (read as ${dateOrder === "dmy" ? "day-first" : "month-first"}).` };
     return applyClock({ year, month, day }, m, 4);
   }
   return {
