@@ -1,0 +1,8 @@
+import type { Metadata } from "next";
+import { StoresScreen } from "@/components/stores/StoresScreen";
+
+export const metadata: Metadata = { title: "Cold stores · Rimebook" };
+
+export default function StoresPage() {
+  return <StoresScreen />;
+}

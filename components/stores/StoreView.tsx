@@ -1,0 +1,241 @@
+"use client";
+
+import Link from "next/link";
+import { useMemo, useState } from "react";
+import { useSearchParams } from "next/navigation";
+import Dexie from "dexie";
+import { useLiveQuery } from "dexie-react-hooks";
+import { getLocalDb } from "@/lib/client/db";
+import { determineBagState, formatTemperature } from "@/lib/domain";
+import { vocabularyLabels } from "@/lib/schemas/vocabulary";
+import { Button } from "@/components/ui/Button";
+import { Card, PageHeader } from "@/components/ui/Card";
+import { Caution, cautionTexts } from "@/components/ui/Caution";
+import { StateBadge } from "@/components/ui/StateBadge";
+import { todayOnPhone, useMember } from "@/components/season/use-member";
+import { formatDay, formatStamp } from "@/components/season/format";
+import { toProtocolForPlan } from "@/components/plan/plan-rows";
+import { buildChartPoints, describeBand, measureBagCold, measureStore } from "./store-metrics";
+import { ReadingsChart } from "./ReadingsChart";
+import { ReadingEntry } from "./ReadingForm";
+import { ReadingsImport } from "./ReadingsImport";
+import { StoreForm } from "./StoreForm";
+import { StoreGlyph } from "./StoreGlyph";
+
+const ranges = [
+  { key: "7", label: "7 days", days: 7 },
+  { key: "30", label: "30 days", days: 30 },
+  { key: "90", label: "90 days", days: 90 },
+  { key: "all", label: "All", days: null },
+] as const;
+
+export function StoreView() {
+  const id = useSearchParams().get("id") ?? "";
+  const { identity, can, unit } = useMember();
+  const [range, setRange] = useState<(typeof ranges)[number]["key"]>("30");
+  const [editing, setEditing] = useState(false);
+  const [panel, setPanel] = useState<"reading" | "import" | null>(null);
+
+  const data = useLiveQuery(async () => {
+    const db = getLocalDb();
+    const store = await db.stores.get(id);
+    if (!store || store.deleted_at) return { store: null } as const;
+    const readings = await db.readings.where("[store_id+taken_at]").between([id, Dexie.minKey], [id, Dexie.maxKey]).toArray();
+    const bags = (await db.bags.where("store_id").equals(id).toArray()).filter((b) => !b.deleted_at && !b.discarded_on && !b.sown_on);
+    const lots = await db.lots.bulkGet([...new Set(bags.map((b) => b.lot_id))]);
+    const protocolIds = [...new Set(bags.map((b) => b.protocol_id).filter((x): x is string => !!x))];
+    const protocols = await db.protocols.bulkGet(protocolIds);
+    return { store, readings, bags, lots: lots.filter((l) => !!l), protocols: protocols.filter((p) => !!p) } as const;
+  }, [id]);
+
+  const nowIso = useMemo(() => new Date().toISOString(), []);
+  const sinceMs = useMemo(() => {
+    const days = ranges.find((r) => r.key === range)?.days ?? null;
+    return days === null ? null : Date.now() - days * 86_400_000;
+  }, [range]);
+
+  if (!id) return <Missing text="No cold store was chosen." />;
+  if (data === undefined) return <p className="p-4 text-ink-soft">Opening the store on this phone…</p>;
+  if (!data.store) return <Missing text="This cold store is not on this phone. It may have been removed, or the phone has not synced it yet." />;
+
+  const { store, readings, bags, lots, protocols } = data;
+  const points = buildChartPoints(readings, unit, sinceMs);
+  const exposure = measureStore(readings, sinceMs);
+  const band = describeBand(unit);
+  const today = todayOnPhone();
+  const bagRows = bags
+    .map((bag) => {
+      const lot = lots.find((l) => l.id === bag.lot_id) ?? null;
+      const protocolRow = protocols.find((p) => p.id === bag.protocol_id) ?? null;
+      const protocol = protocolRow ? toProtocolForPlan(protocolRow) : null;
+      const cold = measureBagCold(bag, protocol, readings, nowIso);
+      const state = determineBagState({ startedOn: bag.start_date, pulledOn: bag.pulled_on, sownOn: bag.sown_on, discardedOn: bag.discarded_on }, cold.shifted ?? cold.window, today);
+      return { bag, lot, cold, state };
+    })
+    .sort((a, b) => (a.bag.box ?? "").localeCompare(b.bag.box ?? "") || a.bag.code.localeCompare(b.bag.code));
+
+  return (
+    <main className="mx-auto max-w-xl space-y-4 px-4 pb-28 pt-4">
+      <Link href="/stores" className="inline-flex min-h-tap items-center text-label font-semibold text-glacier-700">
+        ← All cold stores
+      </Link>
+      <PageHeader
+        title={store.name}
+        subtitle={`${vocabularyLabels.storeKind[store.kind]}${store.boxes.length ? ` · ${store.boxes.join(" · ")}` : ""}`}
+        action={<StoreGlyph kind={store.kind} className="h-12 w-12 shrink-0" />}
+      />
+      {store.holds_food ? <Caution title="Shared with food">{cautionTexts.foodFridge}</Caution> : null}
+      {store.notes ? <p className="text-label text-ink-soft">{store.notes}</p> : null}
+      {can("store.update") ? (
+        editing ? (
+          <Card>
+            <StoreForm store={store} onDone={() => setEditing(false)} />
+          </Card>
+        ) : (
+          <Button tone="quiet" onClick={() => setEditing(true)}>
+            Edit store
+          </Button>
+        )
+      ) : null}
+
+      <Card>
+        <div className="mb-3 flex items-center justify-between gap-2">
+          <h2 className="text-body font-bold text-glacier-800">Readings</h2>
+          <div role="group" aria-label="Period" className="flex gap-1">
+            {ranges.map((r) => (
+              <button
+                key={r.key}
+                type="button"
+                aria-pressed={range === r.key}
+                onClick={() => setRange(r.key)}
+                className={`min-h-tap rounded-lg px-2.5 text-label font-semibold ${range === r.key ? "bg-glacier-700 text-white" : "bg-rime-100 text-ink"}`}
+              >
+                {r.label}
+              </button>
+            ))}
+          </div>
+        </div>
+        <ReadingsChart points={points} band={band} unit={unit} excursions={exposure?.excursions ?? []} />
+        {exposure ? (
+          <dl className="mt-3 grid grid-cols-3 gap-2 text-center">
+            <Stat label="in the band" value={`${Math.round((100 * exposure.hoursInBand) / Math.max(exposure.totalHours, 1e-9))} %`} />
+            <Stat label="too warm" value={`${exposure.hoursAbove.toFixed(0)} h`} />
+            <Stat label="too cold" value={`${exposure.hoursBelow.toFixed(0)} h`} />
+          </dl>
+        ) : null}
+        {exposure?.assumptions.length ? (
+          <ul className="mt-2 list-disc pl-5 text-label text-ink-soft">
+            {exposure.assumptions.map((a) => (
+              <li key={a}>{a}</li>
+            ))}
+          </ul>
+        ) : null}
+      </Card>
+
+      <Card>
+        <h2 className="mb-2 text-body font-bold text-glacier-800">Excursions</h2>
+        {!exposure || exposure.excursions.length === 0 ? (
+          <p className="text-label text-ink-soft">None in this period: every reading was inside {band.band.min}–{band.band.max} °{unit}.</p>
+        ) : (
+          <ul className="space-y-2">
+            {[...exposure.excursions].reverse().map((e) => (
+              <li key={e.startAt} className="rounded-xl border-l-4 border-ember-600 bg-ember-100 p-3 text-label">
+                <p className="font-semibold text-ember-700">
+                  {e.kind === "above" ? "Too warm" : "Too cold"}: {e.kind === "above" ? "up to" : "down to"} {formatTemperature(e.peakC, unit)}
+                </p>
+                <p className="text-ink">
+                  {formatStamp(e.startAt)} → {e.ongoing ? "still outside at the last reading" : formatStamp(e.endAt)} ({e.hours.toFixed(1)} h)
+                </p>
+              </li>
+            ))}
+          </ul>
+        )}
+      </Card>
+
+      <Card>
+        <h2 className="mb-1 text-body font-bold text-glacier-800">Bags in this store</h2>
+        <p className="mb-3 text-label text-ink-soft">
+          Effective cold days count only the time inside each protocol’s band; days lost to warm or frozen spells move the pull window later.
+        </p>
+        {bagRows.length === 0 ? <p className="text-label text-ink-soft">No bags here now.</p> : null}
+        <ul className="divide-y divide-rime-100">
+          {bagRows.map(({ bag, lot, cold, state }) => (
+            <li key={bag.id} className="py-3">
+              <div className="flex items-center justify-between gap-2">
+                <p className="font-mono text-body font-bold tracking-wider">{bag.code}</p>
+                <StateBadge state={state} />
+              </div>
+              <p className="text-label text-ink">
+                {lot?.species ?? "Unknown lot"}
+                {bag.box ? ` · ${bag.box}` : ""}
+              </p>
+              {cold.exposure ? (
+                <p className="text-label text-ink-soft">
+                  {cold.exposure.effectiveColdDays.toFixed(1)} cold days of {cold.exposure.calendarDays.toFixed(1)}
+                  {cold.exposure.lostDays ? ` · ${cold.exposure.lostDays} day${cold.exposure.lostDays === 1 ? "" : "s"} lost` : " · none lost"}
+                </p>
+              ) : (
+                <p className="text-label text-ink-soft">{cold.problem}</p>
+              )}
+              {cold.window && cold.shifted ? (
+                <p className="text-label text-ink">
+                  Pull window {formatDay(cold.shifted.opensOn)}
+                  {cold.shifted.closesOn ? `–${formatDay(cold.shifted.closesOn)}` : " on (no latest date)"}
+                  {cold.shifted.opensOn !== cold.window.opensOn ? <span className="text-wheat-700"> (was {formatDay(cold.window.opensOn)})</span> : null}
+                </p>
+              ) : null}
+            </li>
+          ))}
+        </ul>
+      </Card>
+
+      <Card>
+        <div className="flex flex-wrap gap-2">
+          {can("reading.record") ? (
+            <Button tone={panel === "reading" ? "primary" : "secondary"} aria-expanded={panel === "reading"} onClick={() => setPanel(panel === "reading" ? null : "reading")}>
+              Add a reading
+            </Button>
+          ) : null}
+          {can("import.readings") ? (
+            <Button tone={panel === "import" ? "primary" : "secondary"} aria-expanded={panel === "import"} onClick={() => setPanel(panel === "import" ? null : "import")}>
+              Import logger CSV
+            </Button>
+          ) : null}
+        </div>
+        {!can("reading.record") && identity ? <p className="text-label text-ink-soft">Your role can read the chart; Helpers and up add readings.</p> : null}
+        {panel === "reading" ? (
+          <div className="mt-4">
+            <ReadingEntry storeId={store.id} unit={unit} />
+          </div>
+        ) : null}
+        {panel === "import" ? (
+          <div className="mt-4">
+            <ReadingsImport storeId={store.id} farmUnit={unit} timeZone={identity?.farm.timezone ?? "UTC"} />
+          </div>
+        ) : null}
+      </Card>
+    </main>
+  );
+}
+
+function Stat({ label, value }: { label: string; value: string }) {
+  return (
+    <div className="rounded-xl bg-rime-50 p-2">
+      <dd className="text-title font-bold text-glacier-800">{value}</dd>
+      <dt className="text-label text-ink-soft">{label}</dt>
+    </div>
+  );
+}
+
+function Missing({ text }: { text: string }) {
+  return (
+    <main className="mx-auto max-w-xl px-4 pt-4">
+      <Card>
+        <p>{text}</p>
+        <Link href="/stores" className="mt-3 inline-flex min-h-tap items-center font-semibold text-glacier-700">
+          ← All cold stores
+        </Link>
+      </Card>
+    </main>
+  );
+}
