@@ -1,0 +1,44 @@
+import { buildBagRows, type BagRow } from "@/components/bags/bag-rows";
+import { findNextMoveOn } from "@/components/today/round-input";
+import type { IsoDay } from "@/lib/domain/dates";
+import type { BagForSheet } from "@/lib/client/fridge-reads";
+import { pickBagCautions, type BagCaution } from "./bag-cautions";
+import type { BagForCheck } from "./check-draft";
+
+// What the check sheet's header shows about one bag, worked out with the same helpers as the bags table.
+
+export interface SheetView {
+  row: BagRow;
+  forCheck: BagForCheck;
+  cautions: BagCaution[];
+  /** "Hollow Lane roadside collection, 2025" */
+  lotText: string;
+}
+
+export function describeSheet(data: BagForSheet, today: IsoDay): SheetView | null {
+  const { bag, lot, protocol, store } = data;
+  const row = buildBagRows(
+    { bags: [bag], lots: lot ? [lot] : [], protocols: protocol ? [protocol] : [], stores: store ? [store] : [] },
+    today,
+  )[0];
+  if (!row) return null;
+  return {
+    row,
+    forCheck: {
+      id: bag.id,
+      storeId: bag.store_id ?? null,
+      startedOn: row.startedOn,
+      state: row.state,
+      window: row.window,
+      nextMoveOn: findNextMoveOn(row, protocol),
+    },
+    cautions: pickBagCautions({
+      species: row.species,
+      toxicSeed: protocol?.toxic_seed ?? null,
+      medicinal: Boolean(protocol?.medicinal),
+      treated: Boolean(lot?.treated),
+      storeHoldsFood: Boolean(store?.holds_food),
+    }),
+    lotText: [lot?.source, lot?.year].filter((v) => v !== null && v !== undefined && v !== "").join(", "),
+  };
+}

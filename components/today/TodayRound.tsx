@@ -1,0 +1,125 @@
+"use client";
+
+import Link from "next/link";
+import { useLiveQuery } from "dexie-react-hooks";
+import { getLocalDb } from "@/lib/client/db";
+import { loadFarmRows, loadIdentity, loadLastChecks } from "@/lib/client/fridge-reads";
+import { formatIsoDay } from "@/lib/domain/dates";
+import { formatBagCode } from "@/lib/domain/bag-codes";
+import type { RoundItem } from "@/lib/domain/round";
+import { buttonClass } from "@/components/ui/Button";
+import { Card } from "@/components/ui/Card";
+import { StateBadge } from "@/components/ui/StateBadge";
+import { formatShortDay } from "@/components/bags/format-day";
+import { buildRoundFromRows, cadenceFor, countStoreBags, summarizeRound } from "./round-input";
+import { ScanGlyph } from "./ScanGlyph";
+
+// Today: the bags due for a check, worked out on the phone from the phone store (works with no signal).
+
+async function loadRound(today: string) {
+  const db = getLocalDb();
+  const [rows, identity] = await Promise.all([loadFarmRows(db), loadIdentity(db)]);
+  const live = rows.bags.filter((b) => !b.deleted_at && b.start_date && !b.pulled_on && !b.sown_on && !b.discarded_on);
+  const lastChecks = await loadLastChecks(db, live.map((b) => b.id));
+  const round = buildRoundFromRows(rows, lastChecks, today, cadenceFor(identity?.farm.weekly_check_days));
+  return { round, identity, bagCount: rows.bags.length };
+}
+
+const urgentReasons = new Set(["discard_now", "pull_now", "overdue", "window_opens"]);
+const longDay = new Intl.DateTimeFormat("en-GB", { weekday: "long", day: "numeric", month: "long" });
+
+export function TodayRound() {
+  const today = formatIsoDay(new Date());
+  const data = useLiveQuery(() => loadRound(today), [today]);
+
+  return (
+    <div className="space-y-5">
+      <header>
+        <p className="text-label font-semibold uppercase tracking-wide text-glacier-600">{longDay.format(new Date())}</p>
+        <h1 className="text-display font-bold leading-tight text-glacier-800">Today&apos;s round</h1>
+        {data ? (
+          <p className="text-body text-ink-soft" data-testid="round-count">
+            {data.round.counts.due === 0
+              ? "No bags due for a check."
+              : `${data.round.counts.due} ${data.round.counts.due === 1 ? "bag" : "bags"} to check${data.round.counts.urgent ? `, ${data.round.counts.urgent} needing action first` : ""}.`}
+          </p>
+        ) : null}
+      </header>
+
+      <Link href="/scan" className={buttonClass("primary", "xl", "w-full text-display")}>
+        <ScanGlyph className="h-9 w-9" />
+        Scan a bag
+      </Link>
+
+      {data === undefined ? <p className="text-ink-soft">Opening the round…</p> : null}
+
+      {data && data.bagCount === 0 ? (
+        <Card>
+          <p className="font-semibold">No bags on this phone yet.</p>
+          <p className="text-label text-ink-soft">
+            Once this phone has had signal after sign-in, your farm&apos;s bags appear here and stay available with no signal.
+          </p>
+        </Card>
+      ) : null}
+
+      {data && data.round.counts.due > 0 ? (
+        <ul className="flex flex-wrap gap-2" aria-label="Due today by reason">
+          {summarizeRound(data.round).map((s) => (
+            <li
+              key={s.reason}
+              className={`rounded-full px-3 py-1 text-label font-semibold ${urgentReasons.has(s.reason) ? "bg-ember-100 text-ember-700" : "bg-rime-100 text-glacier-800"}`}
+            >
+              {s.count} · {s.label}
+            </li>
+          ))}
+        </ul>
+      ) : null}
+
+      {data?.round.stores.map((store) => (
+        <section key={store.storeId} aria-labelledby={`store-${store.storeId}`} className="space-y-3">
+          <h2 id={`store-${store.storeId}`} className="flex items-baseline justify-between border-b-2 border-rime-200 pb-1 text-title font-bold text-glacier-800">
+            <span>{store.storeName}</span>
+            <span className="text-label font-semibold text-ink-soft">{countStoreBags(store)} due</span>
+          </h2>
+          {store.boxes.map((box) => (
+            <div key={box.box} className="space-y-2">
+              <h3 className="flex items-baseline justify-between text-label font-semibold uppercase tracking-wide text-ink-soft">
+                <span>{box.box}</span>
+                <span>{box.items.length}</span>
+              </h3>
+              <ul className="space-y-2">
+                {box.items.map((item) => (
+                  <RoundRow key={item.bag.id} item={item} />
+                ))}
+              </ul>
+            </div>
+          ))}
+        </section>
+      ))}
+    </div>
+  );
+}
+
+function RoundRow({ item }: { item: RoundItem }) {
+  const urgent = urgentReasons.has(item.next.reason) || item.priority === 0;
+  return (
+    <li>
+      <Link
+        href={`/check?bag=${encodeURIComponent(item.bag.id)}&from=today`}
+        className={`block min-h-tap rounded-card border-2 bg-white p-3 shadow-sm hover:bg-rime-50 ${urgent ? "border-ember-600" : "border-rime-200"}`}
+        data-testid="round-bag"
+      >
+        <span className="flex items-center justify-between gap-2">
+          <span className="font-mono text-title font-bold tracking-wider text-ink">{formatBagCode(item.bag.code)}</span>
+          <StateBadge state={item.state} />
+        </span>
+        <span className="mt-1 block text-body text-ink">{item.bag.species}</span>
+        <span className={`mt-1 block text-label font-semibold ${urgent ? "text-ember-700" : "text-ink-soft"}`}>
+          {urgent ? <span aria-hidden="true">▲ </span> : null}
+          {item.next.note}
+          {item.isLate ? ` (due since ${formatShortDay(item.next.on)})` : ""}
+        </span>
+      </Link>
+    </li>
+  );
+}

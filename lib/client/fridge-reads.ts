@@ -1,0 +1,70 @@
+import Dexie from "dexie";
+import type { Bag } from "@/lib/schemas/bag";
+import type { Check } from "@/lib/schemas/check";
+import type { Lot } from "@/lib/schemas/lot";
+import type { Store } from "@/lib/schemas/store";
+import { normalizeCrockford } from "@/lib/domain/bag-codes";
+import type { ProtocolRow, RimebookDB } from "./db";
+import { META, readMeta, type PhoneIdentity } from "./meta";
+
+// Reads for the screens at the fridge (Today, Scan, Check, Labels). Only reads: writes go through the
+// repository functions. Components call these inside useLiveQuery so they follow the phone store live.
+
+export interface FarmRows {
+  bags: Bag[];
+  lots: Lot[];
+  protocols: ProtocolRow[];
+  stores: Store[];
+}
+
+export async function loadFarmRows(db: RimebookDB): Promise<FarmRows> {
+  const [bags, lots, protocols, stores] = await Promise.all([db.bags.toArray(), db.lots.toArray(), db.protocols.toArray(), db.stores.toArray()]);
+  return { bags, lots, protocols, stores };
+}
+
+/** The latest check of one bag (checks are append-only; the newest one speaks for the bag). */
+export async function loadLastCheck(db: RimebookDB, bagId: string): Promise<Check | null> {
+  const rows = await db.checks
+    .where("[bag_id+checked_at]")
+    .between([bagId, Dexie.minKey], [bagId, Dexie.maxKey])
+    .reverse()
+    .toArray();
+  return rows.find((c) => !c.deleted_at) ?? null;
+}
+
+/** Latest check per bag, for the bags still in the cold (one indexed look-up each). */
+export async function loadLastChecks(db: RimebookDB, bagIds: readonly string[]): Promise<Map<string, Check>> {
+  const found = await Promise.all(bagIds.map(async (id) => [id, await loadLastCheck(db, id)] as const));
+  return new Map(found.filter((f): f is readonly [string, Check] => f[1] !== null));
+}
+
+export async function loadIdentity(db: RimebookDB): Promise<PhoneIdentity | null> {
+  return (await readMeta<PhoneIdentity>(db, META.identity)) ?? null;
+}
+
+export interface BagForSheet {
+  bag: Bag;
+  lot: Lot | null;
+  protocol: ProtocolRow | null;
+  store: Store | null;
+  lastCheck: Check | null;
+}
+
+/** One bag by id or by code (as the label carries it), with what its check sheet shows. */
+export async function loadBagForSheet(db: RimebookDB, ref: { bagId?: string | null; code?: string | null }): Promise<BagForSheet | null> {
+  let bag: Bag | undefined;
+  if (ref.bagId) bag = await db.bags.get(ref.bagId);
+  else if (ref.code) {
+    const code = normalizeCrockford(ref.code);
+    bag = (await db.bags.where("code").equals(code).toArray()).find((b) => !b.deleted_at);
+  }
+  if (!bag || bag.deleted_at) return null;
+  const lot = (await db.lots.get(bag.lot_id)) ?? null;
+  const protocolId = bag.protocol_id ?? lot?.protocol_id ?? null;
+  const [protocol, store, lastCheck] = await Promise.all([
+    protocolId ? db.protocols.get(protocolId) : undefined,
+    bag.store_id ? db.stores.get(bag.store_id) : undefined,
+    loadLastCheck(db, bag.id),
+  ]);
+  return { bag, lot, protocol: protocol && !protocol.deleted_at ? protocol : null, store: store ?? null, lastCheck };
+}
