@@ -84,7 +84,8 @@ function parseTimestamp(at: string, what: string): number {
 export function normalizeReadings(readings: readonly TemperatureReading[]): ParsedReading[] {
   return readings
     .map((r, i) => ({ t: parseTimestamp(r.at, `Reading ${i + 1}`), c: convertToCelsius(r.value, r.unit), at: r.at }))
-    .sort((a, b) => a.t - b.t);
+    // Two readings at the same moment: the colder first, so the order they were entered in never matters.
+    .sort((a, b) => a.t - b.t || a.c - b.c);
 }
 
 function isInside(c: number, band: TemperatureBand): boolean {

@@ -86,7 +86,7 @@ export function computeSeedsNeeded(targetPlants: number, germination: number, su
   if (!(germination > 0 && germination <= 1)) throw new DomainError("Expected germination must be above 0 % and at most 100 %.");
   if (!(survival > 0 && survival <= 1)) throw new DomainError("Expected survival must be above 0 % and at most 100 %.");
   // The small tolerance keeps 100 / 0.4 from becoming 251 through floating-point noise.
-  return Math.ceil(targetPlants / (germination * survival) - 1e-9);
+  return Math.max(0, Math.ceil(targetPlants / (germination * survival) - 1e-9));
 }
 
 export function pickExpectedGermination(expectation: GerminationExpectation): { value: number; basis: string } {

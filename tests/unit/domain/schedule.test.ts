@@ -41,16 +41,16 @@ describe("pull window", () => {
     expect(plan.nextMoveOn).toBeNull();
   });
 
-  it.each([
+  it.each<[ProtocolPhase[], string, string, string | null, boolean]>([
     // [phases, start, opens, closes, disagree]
     [[cold(14, 28)], "2023-12-01", "2023-12-15", "2023-12-29", false], // A. speciosa 2–4 weeks (Kaye et al. 2018)
     [[cold(60, 60)], "2023-12-01", "2024-01-30", "2024-01-30", false], // REFERENCES.md: 2023-12-01 + 60 = 2024-01-30
     [[{ ...cold(14, 14), sources: [cold(14, 14).sources[0], cold(70, 70, "Other").sources[0]] }], "2024-01-01", "2024-01-15", "2024-03-11", true],
     [[cold(28, null)], "2024-01-01", "2024-01-29", null, false], // no upper limit (Lavandula row)
     [[{ kind: "scarify", note: "", sources: [] }, cold(70, 70)], "2024-01-01", "2024-03-11", "2024-03-11", false], // scarify takes no days
-  ] as const)("%j from %s opens %s closes %s", (phases, start, opensOn, closesOn, sourcesDisagree) => {
+  ])("%j from %s opens %s closes %s", (phases, start, opensOn, closesOn, sourcesDisagree) => {
     // Common practice: the pull is planned for the earliest date (plannedPullOn = opensOn).
-    expect(computePullWindow(protocolOf(...(phases as ProtocolPhase[])), start)).toEqual({ opensOn, closesOn, plannedPullOn: opensOn, sourcesDisagree });
+    expect(computePullWindow(protocolOf(...phases), start)).toEqual({ opensOn, closesOn, plannedPullOn: opensOn, sourcesDisagree });
   });
 
   it("no window for a species that needs no cold (Rudbeckia hirta)", () => {
