@@ -101,6 +101,12 @@ export class RimebookDB extends Dexie {
       pending_photos: "id, bag_id, check_id",
       meta: "key",
     });
+    // v2: a bag code is unique on the server, not on the phone: two phones may pick the same code
+    // offline, and the loser's row must still sync down until the grower relabels it.
+    this.version(2).stores({
+      bags: "id, code, store_id, lot_id, trial_arm_id, plan_item_id, seq",
+      memberships: "id, user_id, role, seq",
+    });
   }
 }
 

@@ -5,7 +5,6 @@ import type { Lot } from "@/lib/schemas/lot";
 import type { Store } from "@/lib/schemas/store";
 import { normalizeCrockford } from "@/lib/domain/bag-codes";
 import type { ProtocolRow, RimebookDB } from "./db";
-import { META, readMeta, type PhoneIdentity } from "./meta";
 
 // Reads for the screens at the fridge (Today, Scan, Check, Labels). Only reads: writes go through the
 // repository functions. Components call these inside useLiveQuery so they follow the phone store live.
@@ -36,10 +35,6 @@ export async function loadLastCheck(db: RimebookDB, bagId: string): Promise<Chec
 export async function loadLastChecks(db: RimebookDB, bagIds: readonly string[]): Promise<Map<string, Check>> {
   const found = await Promise.all(bagIds.map(async (id) => [id, await loadLastCheck(db, id)] as const));
   return new Map(found.filter((f): f is readonly [string, Check] => f[1] !== null));
-}
-
-export async function loadIdentity(db: RimebookDB): Promise<PhoneIdentity | null> {
-  return (await readMeta<PhoneIdentity>(db, META.identity)) ?? null;
 }
 
 export interface BagForSheet {

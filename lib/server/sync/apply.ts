@@ -61,6 +61,8 @@ async function applyOne(db: Knex, member: PushMember, deviceId: string, m: Mutat
       throw new AppError("forbidden", `A ${vocabularyLabels.role[member.role]} cannot do this (${describe(m.name)}). Ask the farm's owner.`);
     }
     await db.transaction(async (trx) => {
+      // Two tabs pushing the same outbox at once: the second finds the first's record and stops.
+      if (await trx("applied_mutations").where({ id: m.id, outcome: "applied" }).first("id")) return;
       const ctx: Ctx = { trx, member, mutationId: m.id, at };
       for (const effect of effectsOf(m.name, args as never)) await applyEffect(ctx, effect);
       await record(trx, "applied");

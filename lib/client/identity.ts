@@ -1,0 +1,88 @@
+import { farmTables, getLocalDb, type RimebookDB } from "./db";
+import { META, readMeta, writeMeta, type PhoneIdentity } from "./meta";
+import { getSyncEngine, setSyncEngine } from "./sync";
+
+// Who is using this phone. Kept in the phone store so the app opens with no signal; refreshed from
+// GET /api/me when there is. Sign-out empties the phone store and the caches (after a warning when
+// unsent work would be lost).
+
+type Net = { fetch?: typeof fetch; baseUrl?: string; db?: RimebookDB };
+
+export async function loadIdentity(db: RimebookDB = getLocalDb()): Promise<PhoneIdentity | null> {
+  return (await readMeta<PhoneIdentity>(db, META.identity)) ?? null;
+}
+
+/**
+ * Remembers the signed-in member. A different person or farm on this phone starts from an empty
+ * farm copy; their predecessor's unsent records stay visible as refused (never sent under the new name).
+ */
+export async function adoptIdentity(me: PhoneIdentity, db: RimebookDB = getLocalDb()): Promise<void> {
+  const prev = await loadIdentity(db);
+  const samePerson = prev && prev.user.id === me.user.id && prev.farm.id === me.farm.id;
+  await db.transaction("rw", [...farmTables.map((t) => db.table(t)), db.audit_log, db.outbox, db.meta, db.pending_photos], async () => {
+    if (prev && !samePerson) {
+      await Promise.all([...farmTables.map((t) => db.table(t).clear()), db.audit_log.clear(), db.pending_photos.clear()]);
+      await db.meta.bulkDelete([META.cursor, META.firstPullDone, META.repairPull, META.lastSyncAt]);
+      await db.outbox
+        .where("status")
+        .equals("pending")
+        .modify({ status: "rejected", error: { code: "other_account", message: `Recorded while ${prev.user.name} was signed in; sign in as them to send it.` } });
+    }
+    await writeMeta(db, META.identity, { ...me, farm: { ...(samePerson ? prev.farm : {}), ...me.farm } });
+  });
+}
+
+/** Asks the server who is signed in: the identity, null (signed out: 401), or "offline". */
+export async function refreshIdentity({ fetch: f = fetch, baseUrl = "", db = getLocalDb() }: Net = {}): Promise<PhoneIdentity | null | "offline"> {
+  let res: Response;
+  try {
+    res = await f(`${baseUrl}/api/me`, { credentials: "same-origin", cache: "no-store" });
+  } catch {
+    return "offline";
+  }
+  if (res.status === 401) return null;
+  if (!res.ok) return "offline";
+  const me = (await res.json()) as PhoneIdentity;
+  await adoptIdentity(me, db);
+  return me;
+}
+
+export type SignOutResult = { ok: true } | { ok: false; pending: number; photos: number };
+
+/**
+ * Signs out: refuses (with the counts, so the screen can warn) while unsent work is on the phone,
+ * unless `force`. Then ends the session, empties the phone store and every cache that may hold
+ * this farm's data; the precached app shell (no farm data in it) stays so the app still opens.
+ */
+export async function signOut({ force = false, fetch: f = fetch, baseUrl = "", db = getLocalDb() }: Net & { force?: boolean } = {}): Promise<SignOutResult> {
+  const pending = await db.outbox.where("status").equals("pending").count();
+  const photos = await db.pending_photos.count();
+  if ((pending > 0 || photos > 0) && !force) return { ok: false, pending, photos };
+  try {
+    await f(`${baseUrl}/api/auth/sign-out`, { method: "POST", credentials: "same-origin" });
+  } catch {
+    /* offline: the cookie is cleared server-side at its expiry; the phone forgets it now */
+  }
+  getSyncEngine().stop();
+  setSyncEngine(null);
+  await wipePhoneStore(db);
+  await clearFarmCaches();
+  return { ok: true };
+}
+
+/** Everything but the device id. */
+export async function wipePhoneStore(db: RimebookDB = getLocalDb()): Promise<void> {
+  const deviceId = await readMeta<string>(db, META.deviceId);
+  await db.transaction("rw", db.tables, async () => {
+    await Promise.all(db.tables.map((t) => t.clear()));
+    if (deviceId) await writeMeta(db, META.deviceId, deviceId);
+  });
+}
+
+/** Runtime caches (API answers, visited pages, photos) go; the build's precache stays. */
+export async function clearFarmCaches(): Promise<void> {
+  if (typeof caches === "undefined") return;
+  for (const name of await caches.keys()) {
+    if (!name.includes("precache")) await caches.delete(name);
+  }
+}

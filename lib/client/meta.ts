@@ -1,0 +1,47 @@
+import type { Role } from "@/lib/schemas/vocabulary";
+import type { RimebookDB } from "./db";
+
+// Keys of the phone store's meta table, and the identity the app needs to open with no signal.
+
+export const META = {
+  identity: "identity",
+  deviceId: "device_id",
+  cursor: "cursor",
+  lastSyncAt: "last_sync_at",
+  firstPullDone: "first_pull_done",
+  repairPull: "repair_pull",
+} as const;
+
+export type FarmSettings = {
+  id: string;
+  name: string;
+  last_frost_date?: string | null;
+  location_note?: string | null;
+  temperature_unit?: string;
+  weekly_check_days?: number;
+  timezone?: string;
+};
+
+/** The signed-in member as the phone remembers it: {user, farm, role}, as GET /api/me answers. */
+export type PhoneIdentity = {
+  user: { id: string; name: string; email: string };
+  farm: FarmSettings;
+  role: Role;
+};
+
+export async function readMeta<T>(db: RimebookDB, key: string): Promise<T | undefined> {
+  return (await db.meta.get(key))?.value as T | undefined;
+}
+
+export async function writeMeta(db: RimebookDB, key: string, value: unknown): Promise<void> {
+  await db.meta.put({ key, value });
+}
+
+/** This browser profile's id, sent with every push (kept across sign-outs). */
+export async function deviceIdOf(db: RimebookDB): Promise<string> {
+  const existing = await readMeta<string>(db, META.deviceId);
+  if (existing) return existing;
+  const id = crypto.randomUUID();
+  await writeMeta(db, META.deviceId, id);
+  return id;
+}
