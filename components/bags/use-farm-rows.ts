@@ -1,0 +1,47 @@
+"use client";
+
+import { useEffect, useState } from "react";
+import { useLiveQuery } from "dexie-react-hooks";
+import { getLocalDb } from "@/lib/client/db";
+import { META, type PhoneIdentity } from "@/lib/client/meta";
+import { canRun, type ActionName, type MutationName } from "@/lib/schemas/mutations";
+import { formatIsoDay, type IsoDay } from "@/lib/domain";
+import type { BagRowSources } from "./bag-rows";
+
+// Live reads of the phone store for the bag, lot and protocol screens. Writes never happen here.
+
+/** Bags, lots, protocols and stores as the phone holds them (tombstones left out); undefined while loading. */
+export function useBagSources(): BagRowSources | undefined {
+  return useLiveQuery(async () => {
+    const db = getLocalDb();
+    const [bags, lots, protocols, stores] = await Promise.all([db.bags.toArray(), db.lots.toArray(), db.protocols.toArray(), db.stores.toArray()]);
+    const live = <T extends { deleted_at: string | null }>(rows: T[]) => rows.filter((r) => !r.deleted_at);
+    return { bags: live(bags), lots: live(lots), protocols: live(protocols), stores: live(stores) };
+  }, []);
+}
+
+/** The signed-in member as this phone remembers it; null when nobody has signed in here, undefined while loading. */
+export function usePhoneIdentity(): PhoneIdentity | null | undefined {
+  return useLiveQuery(async () => ((await getLocalDb().meta.get(META.identity))?.value as PhoneIdentity | undefined) ?? null, []);
+}
+
+/** Whether the member's role may run this mutation or action (the server checks again). */
+export function useCan(name: MutationName | ActionName): boolean {
+  const identity = usePhoneIdentity();
+  return identity ? canRun(identity.role, name) : false;
+}
+
+/** Today on the phone's calendar; refreshed when the phone wakes after midnight. */
+export function useToday(): IsoDay {
+  const [today, setToday] = useState(() => formatIsoDay(new Date()));
+  useEffect(() => {
+    const refresh = () => setToday(formatIsoDay(new Date()));
+    const timer = window.setInterval(refresh, 60_000);
+    document.addEventListener("visibilitychange", refresh);
+    return () => {
+      window.clearInterval(timer);
+      document.removeEventListener("visibilitychange", refresh);
+    };
+  }, []);
+  return today;
+}
