@@ -251,27 +251,19 @@ export function adviseOnCheck(findings: Pick<CheckFindings, "moisture" | "mould"
       findings.sprouts === "many" ? "Many seeds have sprouted: pull and sow today." : "First roots are showing: pull now and sow.";
     steps.push("Handle sprouted seeds gently; the young roots break easily.");
   }
-  if (findings.mould === "spots") {
+  // Smaller problems add their steps; the first one found names the headline unless roots already did.
+  const problems: [boolean, string, string[]][] = [
+    [findings.mould === "spots", "A few mould spots.", ["Lift out the seeds with mould on them and blot the medium; check again tomorrow.", "Wash your hands afterwards."]],
+    [findings.moisture === "soggy", "The medium is soggy.", ["Blot it with a dry towel until there is no free water; too wet breeds mould. Check again tomorrow."]],
+    [findings.moisture === "dry", "The medium has dried out.", ["Add a few drops of water until it is damp with dry corners; seed that dries out can fall back asleep. Check again in two days."]],
+  ];
+  for (const [found, problemHeadline, problemSteps] of problems) {
+    if (!found) continue;
     if (level === "fine") {
       level = "attention";
-      headline = "A few mould spots.";
+      headline = problemHeadline;
     }
-    steps.push("Lift out the seeds with mould on them and blot the medium; check again tomorrow.");
-    steps.push("Wash your hands afterwards.");
-  }
-  if (findings.moisture === "soggy") {
-    if (level === "fine") {
-      level = "attention";
-      headline = "The medium is soggy.";
-    }
-    steps.push("Blot it with a dry towel until there is no free water; too wet breeds mould. Check again tomorrow.");
-  }
-  if (findings.moisture === "dry") {
-    if (level === "fine") {
-      level = "attention";
-      headline = "The medium has dried out.";
-    }
-    steps.push("Add a few drops of water until it is damp with dry corners; seed that dries out can fall back asleep. Check again in two days.");
+    steps.push(...problemSteps);
   }
   return { level, headline, steps };
 }
