@@ -1,22 +1,18 @@
 import "server-only";
 import { randomUUID } from "node:crypto";
 import type { Knex } from "knex";
-import { SignJWT, jwtVerify } from "jose";
-import { env } from "./env";
 import { getDb } from "./db";
+import { SESSION_COOKIE, signSessionToken, verifySessionToken } from "./session-token";
+
+export { SESSION_COOKIE, verifySessionToken };
 
 // A session is a server-side row (revocable) named by a short jose-signed token kept in an
 // httpOnly cookie. The token's own expiry matches the row's; the row is the authority.
 
-export const SESSION_COOKIE = "rimebook_session";
 export const SESSION_DAYS = 30;
 /** Rolling renewal: once a day of use, the session is pushed out to a fresh 30 days. */
 const RENEW_AFTER_MS = 24 * 60 * 60 * 1000;
 const DAY_MS = 24 * 60 * 60 * 1000;
-
-const ISSUER = "rimebook";
-const AUDIENCE = "rimebook-session";
-const secretKey = () => new TextEncoder().encode(env.SESSION_SECRET);
 
 export type SessionRow = {
   id: string;
@@ -33,26 +29,6 @@ export type IssuedSession = { token: string; sessionId: string; expiresAt: strin
 
 /** The session as read from a valid token; `renewed` is set when the cookie should be re-issued. */
 export type ActiveSession = { session: SessionRow; renewed: IssuedSession | null };
-
-async function signSessionToken(sessionId: string, expiresAt: Date): Promise<string> {
-  return new SignJWT({ sid: sessionId })
-    .setProtectedHeader({ alg: "HS256" })
-    .setIssuer(ISSUER)
-    .setAudience(AUDIENCE)
-    .setIssuedAt()
-    .setExpirationTime(Math.floor(expiresAt.getTime() / 1000))
-    .sign(secretKey());
-}
-
-/** Verifies signature, issuer and expiry; returns the session id it names, or null. */
-export async function verifySessionToken(token: string): Promise<string | null> {
-  try {
-    const { payload } = await jwtVerify(token, secretKey(), { issuer: ISSUER, audience: AUDIENCE, algorithms: ["HS256"] });
-    return typeof payload.sid === "string" ? payload.sid : null;
-  } catch {
-    return null;
-  }
-}
 
 export async function createSession(
   db: Knex | Knex.Transaction,

@@ -1,0 +1,12 @@
+import type { Metadata } from "next";
+import { TeamPanel } from "@/components/team/TeamPanel";
+
+export const metadata: Metadata = { title: "Team" };
+
+export default function TeamPage() {
+  return (
+    <div className="mx-auto max-w-xl px-4 py-5">
+      <TeamPanel />
+    </div>
+  );
+}

@@ -1,0 +1,61 @@
+"use client";
+
+import Link from "next/link";
+import { useState } from "react";
+import { useForm } from "react-hook-form";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { InviteAcceptInput, NewMemberAcceptInput, PASSWORD_MIN } from "@/lib/schemas/account";
+import { Button } from "@/components/ui/Button";
+import { Field, Input } from "@/components/ui/Field";
+import { FormMessage, PasswordInput, applyServerError, invalidProps, sendJson } from "./form-kit";
+
+/** New people choose a name and password; someone with an account enters their existing password. */
+export function AcceptInviteForm({ token, email, existingAccount }: { token: string; email: string; existingAccount: boolean }) {
+  const { register, handleSubmit, formState, setError } = useForm({
+    resolver: zodResolver(existingAccount ? InviteAcceptInput : NewMemberAcceptInput),
+    defaultValues: { token, name: "", password: "" },
+  });
+  const [message, setMessage] = useState<string | null>(null);
+
+  const onSubmit = handleSubmit(async (values) => {
+    setMessage(null);
+    const res = await sendJson("/api/invites/accept", existingAccount ? { token, password: values.password } : values);
+    if (!res.ok) {
+      setMessage(applyServerError(setError, res.error, ["name", "password"]));
+      return;
+    }
+    window.location.assign("/today");
+  });
+
+  const e = formState.errors;
+  return (
+    <form onSubmit={onSubmit} noValidate className="space-y-4" aria-label="Accept the invite">
+      <input type="hidden" {...register("token")} />
+      <Field label="E-mail" htmlFor="email">
+        <Input id="email" type="email" value={email} readOnly aria-readonly className="bg-rime-100" />
+      </Field>
+      {existingAccount ? null : (
+        <Field label="Your name" htmlFor="name" error={e.name?.message} hint="As your team knows you.">
+          <Input id="name" autoComplete="name" {...invalidProps("name", e.name?.message)} {...register("name")} />
+        </Field>
+      )}
+      <Field
+        label={existingAccount ? "Your Rimebook password" : "Choose a password"}
+        htmlFor="password"
+        error={e.password?.message}
+        hint={existingAccount ? "This e-mail already has a Rimebook account; the farm will be added to it." : `At least ${PASSWORD_MIN} characters. A short sentence works well.`}
+      >
+        <PasswordInput id="password" autoComplete={existingAccount ? "current-password" : "new-password"} {...invalidProps("password", e.password?.message)} {...register("password")} />
+      </Field>
+      <FormMessage message={message} />
+      <Button type="submit" size="lg" className="w-full" disabled={formState.isSubmitting}>
+        {formState.isSubmitting ? "Joining…" : "Join the farm"}
+      </Button>
+      {existingAccount ? (
+        <Link href="/reset" className="flex min-h-tap items-center text-label font-semibold text-glacier-700 underline-offset-4 hover:underline">
+          Forgot that password?
+        </Link>
+      ) : null}
+    </form>
+  );
+}
