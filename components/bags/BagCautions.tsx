@@ -1,22 +1,17 @@
-import { Caution, cautionTexts } from "@/components/ui/Caution";
-import type { BagCautionChoice, BagCautionKey } from "./new-bag-defaults";
+import { Caution } from "@/components/ui/Caution";
+import type { BagCaution } from "@/components/check/bag-cautions";
 
-const titles: Record<BagCautionKey, string> = {
-  toxic: "Toxic seed",
-  treated: "Treated seed",
-  foodFridge: "This store also holds food",
-  medicinal: "Medicinal plant",
-};
-
-/** The cautions a bag needs (chosen by chooseBagCautions), calm and short, deferring to local rules and the supplier. */
-export function BagCautions({ cautions }: { cautions: readonly BagCautionChoice[] }) {
+/** A bag's cautions (picked by pickBagCautions), calm and short, deferring to local rules and the seed supplier. */
+export function BagCautions({ cautions }: { cautions: readonly BagCaution[] }) {
   if (!cautions.length) return null;
   return (
     <div className="space-y-2" aria-label="Cautions">
       {cautions.map((c) => (
-        <Caution key={c.key} title={titles[c.key]} tone={c.key === "treated" || (c.key === "foodFridge" && cautions.some((x) => x.key === "toxic" || x.key === "treated")) ? "strong" : "calm"}>
-          <p>{cautionTexts[c.key]}</p>
-          {c.source ? <p className="mt-1 text-ink-soft">{c.source}</p> : null}
+        <Caution key={c.key} title={c.title} tone={c.key === "treated" ? "strong" : "calm"}>
+          <p>{c.text}</p>
+          {c.key === "toxic" ? (
+            <p className="mt-1 text-ink-soft">{c.source ? `Source: ${c.source}.` : "Flag from memory, not yet verified against a source."}</p>
+          ) : null}
         </Caution>
       ))}
     </div>

@@ -33,7 +33,8 @@ import {
   type BagSortKey,
 } from "./bag-rows";
 import { formatShortDay } from "./format-day";
-import { useBagSources, useCan, useToday } from "./use-farm-rows";
+import { useBagSources, useToday } from "./use-farm-rows";
+import { useMember } from "@/components/season/use-member";
 
 const col = createColumnHelper<BagRow>();
 
@@ -64,7 +65,7 @@ function ChipRow({ label, children }: { label: string; children: React.ReactNode
 export function BagsTable() {
   const sources = useBagSources();
   const today = useToday();
-  const canCreate = useCan("bag.create");
+  const canCreate = useMember().can("bag.create");
   const [filters, setFilters] = useState<BagFilters>(defaultBagFilters);
   const [sorting, setSorting] = useState<SortingState>([{ id: "window", desc: false }]);
   const [showFilters, setShowFilters] = useState(false);

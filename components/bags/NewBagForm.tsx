@@ -16,11 +16,13 @@ import { Card, PageHeader } from "@/components/ui/Card";
 import { Field, Input, Select, TextArea } from "@/components/ui/Field";
 import { readProtocolRow } from "@/components/protocols/protocol-row";
 import type { BagRowSources } from "./bag-rows";
-import { buildNewBagDraft, chooseBagCautions, fillPullWindow, generateUniqueBagCode, pickProtocolForLot } from "./new-bag-defaults";
+import { buildNewBagDraft, fillPullWindow, generateUniqueBagCode, pickProtocolForLot } from "./new-bag-defaults";
 import { BagCautions } from "./BagCautions";
+import { pickBagCautions } from "@/components/check/bag-cautions";
+import { useMember } from "@/components/season/use-member";
 import { formatLongDay } from "./format-day";
 import { describeSaveError } from "./save-error";
-import { useBagSources, useCan, useToday } from "./use-farm-rows";
+import { useBagSources, useToday } from "./use-farm-rows";
 
 // The bag form uses the shared Bag schema (BagInput), with one extra choice: does the bag go in today or later.
 const NewBagFields = BagInput.pick({
@@ -62,7 +64,7 @@ function lotLabel(l: Lot) {
 export function NewBagForm() {
   const sources = useBagSources();
   const today = useToday();
-  const canCreate = useCan("bag.create");
+  const canCreate = useMember().can("bag.create");
   const params = useSearchParams();
   if (!sources) return <p className="p-4 text-body text-ink-soft">Opening the lots and stores on this phone…</p>;
   return (
@@ -142,7 +144,7 @@ function NewBagFormBody({ sources, today, initialLotId }: { sources: BagRowSourc
   }, [storeId, sources, setValue]);
 
   const reconciled = protocol ? readProtocolRow(protocol) : null;
-  const cautions = chooseBagCautions({
+  const cautions = pickBagCautions({
     species: lot?.species ?? protocol?.species ?? "",
     toxicSeed: protocol?.toxic_seed ?? null,
     treated: lot?.treated,

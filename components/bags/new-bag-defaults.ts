@@ -2,8 +2,7 @@ import type { Lot } from "@/lib/schemas/lot";
 import type { Store } from "@/lib/schemas/store";
 import type { ProtocolRow } from "@/lib/client/db";
 import type { Medium } from "@/lib/schemas/vocabulary";
-import type { ToxicSeedFlag } from "@/lib/schemas/protocol";
-import { computePullWindow, findToxicSeedFlag, generateBagCode, normalizeCrockford, type IsoDay } from "@/lib/domain";
+import { computePullWindow, generateBagCode, normalizeCrockford, type IsoDay } from "@/lib/domain";
 import { matchProtocolBySpecies, readProtocolRow } from "@/components/protocols/protocol-row";
 
 // What the new-bag form fills in by itself from a lot, a protocol and the farm's stores. Pure, so it is tested
@@ -93,34 +92,4 @@ export function buildNewBagDraft(input: NewBagDraftInput): NewBagDraft {
     box: store?.boxes[0] ?? null,
     medium: input.medium ?? "paper_towel",
   };
-}
-
-export type BagCautionKey = "toxic" | "treated" | "foodFridge" | "medicinal";
-
-export interface BagCautionInput {
-  species: string;
-  /** The protocol's flag; falls back to lib/domain's genus list when the protocol has none. */
-  toxicSeed?: ToxicSeedFlag | null;
-  treated?: boolean;
-  medicinal?: boolean;
-  storeHoldsFood?: boolean;
-}
-
-export interface BagCautionChoice {
-  key: BagCautionKey;
-  /** The published source for a toxic flag, or a plain note that the flag is not yet verified. */
-  source?: string;
-}
-
-/** Which cautions the bag needs, most serious first. The food-fridge caution always shows when the store holds food. */
-export function chooseBagCautions(input: BagCautionInput): BagCautionChoice[] {
-  const out: BagCautionChoice[] = [];
-  const toxic = input.toxicSeed ?? findToxicSeedFlag(input.species)?.flag ?? null;
-  if (toxic) {
-    out.push({ key: "toxic", source: toxic.verified && toxic.citation ? `Source: ${toxic.citation}.` : "Flag from memory, not yet verified against a source." });
-  }
-  if (input.treated) out.push({ key: "treated" });
-  if (input.storeHoldsFood) out.push({ key: "foodFridge" });
-  if (input.medicinal) out.push({ key: "medicinal" });
-  return out;
 }

@@ -3,8 +3,6 @@
 import { useEffect, useState } from "react";
 import { useLiveQuery } from "dexie-react-hooks";
 import { getLocalDb } from "@/lib/client/db";
-import { META, type PhoneIdentity } from "@/lib/client/meta";
-import { canRun, type ActionName, type MutationName } from "@/lib/schemas/mutations";
 import { formatIsoDay, type IsoDay } from "@/lib/domain";
 import type { BagRowSources } from "./bag-rows";
 
@@ -18,17 +16,6 @@ export function useBagSources(): BagRowSources | undefined {
     const live = <T extends { deleted_at: string | null }>(rows: T[]) => rows.filter((r) => !r.deleted_at);
     return { bags: live(bags), lots: live(lots), protocols: live(protocols), stores: live(stores) };
   }, []);
-}
-
-/** The signed-in member as this phone remembers it; null when nobody has signed in here, undefined while loading. */
-export function usePhoneIdentity(): PhoneIdentity | null | undefined {
-  return useLiveQuery(async () => ((await getLocalDb().meta.get(META.identity))?.value as PhoneIdentity | undefined) ?? null, []);
-}
-
-/** Whether the member's role may run this mutation or action (the server checks again). */
-export function useCan(name: MutationName | ActionName): boolean {
-  const identity = usePhoneIdentity();
-  return identity ? canRun(identity.role, name) : false;
 }
 
 /** Today on the phone's calendar; refreshed when the phone wakes after midnight. */

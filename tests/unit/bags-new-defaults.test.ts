@@ -1,7 +1,6 @@
 import { describe, expect, it } from "vitest";
 import {
   buildNewBagDraft,
-  chooseBagCautions,
   fillPullWindow,
   generateUniqueBagCode,
   pickDefaultStore,
@@ -114,21 +113,5 @@ describe("generateUniqueBagCode", () => {
   it("gives up with a message instead of looping forever", () => {
     const only = generateUniqueBagCode([], bytes([0, 0, 0, 0, 0, 0, 0, 0]));
     expect(() => generateUniqueBagCode([only], bytes([0, 0, 0, 0, 0, 0, 0, 0]), 3)).toThrow(/unused bag code/);
-  });
-});
-
-describe("chooseBagCautions", () => {
-  it.each([
-    // Elder: CDC MMWR 1984 (verified flag in lib/domain)
-    [{ species: "Sambucus spp." }, [["toxic", "Source: CDC, MMWR 1984 (poisoning from raw elder parts)."]]],
-    // Milkweeds: from memory, flagged as not yet verified
-    [{ species: "Asclepias speciosa", storeHoldsFood: true }, [["toxic", "Flag from memory, not yet verified against a source."], ["foodFridge", undefined]]],
-    [{ species: "Echinacea purpurea", medicinal: true }, [["medicinal", undefined]]],
-    [{ species: "Fragaria vesca", treated: true, storeHoldsFood: true }, [["treated", undefined], ["foodFridge", undefined]]],
-    [{ species: "Fragaria vesca" }, []],
-    // the protocol's own flag wins over the genus list
-    [{ species: "Fragaria vesca", toxicSeed: { citation: "Grower's note", verified: true, note: "" } }, [["toxic", "Source: Grower's note."]]],
-  ] as const)("%j", (input, want) => {
-    expect(chooseBagCautions(input).map((c) => [c.key, c.source])).toEqual(want);
   });
 });
