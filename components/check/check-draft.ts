@@ -45,7 +45,13 @@ export function toggleAction(actions: readonly CheckAction[], action: CheckActio
   return actions.includes(action) ? actions.filter((a) => a !== action) : [...actions, action];
 }
 
-export function previewCheck(draft: CheckDraft, bag: BagForCheck, today: IsoDay, cadence?: CheckCadence): CheckPreview {
+export function previewCheck(
+  draft: CheckDraft,
+  bag: BagForCheck,
+  today: IsoDay,
+  cadence?: CheckCadence,
+  formatDay: (day: IsoDay) => string = (d) => d,
+): CheckPreview {
   const advice = adviseOnCheck(draft);
   const ends = draft.actions.includes("discarded") ? "discarded" : draft.actions.includes("pulled") ? "pulled" : null;
   const next = ends
@@ -61,7 +67,7 @@ export function previewCheck(draft: CheckDraft, bag: BagForCheck, today: IsoDay,
   let nextText: string;
   if (ends) nextText = `No more checks: the bag is ${ends}.`;
   else if (!next) nextText = bag.state === "planned" ? "No checks until the bag starts chilling." : "No more checks for this bag.";
-  else nextText = next.on <= today ? `Act today: ${next.note}` : `Next check ${next.on}: ${next.note}`;
+  else nextText = next.on <= today ? `Act today: ${next.note}` : `Next check ${formatDay(next.on)}: ${next.note}`;
   return {
     advice,
     next,

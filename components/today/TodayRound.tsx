@@ -3,7 +3,8 @@
 import Link from "next/link";
 import { useLiveQuery } from "dexie-react-hooks";
 import { getLocalDb } from "@/lib/client/db";
-import { loadFarmRows, loadIdentity, loadLastChecks } from "@/lib/client/fridge-reads";
+import { loadFarmRows, loadLastChecks } from "@/lib/client/fridge-reads";
+import { loadIdentity } from "@/lib/client/identity";
 import { formatIsoDay } from "@/lib/domain/dates";
 import { formatBagCode } from "@/lib/domain/bag-codes";
 import type { RoundItem } from "@/lib/domain/round";

@@ -1,0 +1,346 @@
+"use client";
+
+import Link from "next/link";
+import { useRouter, useSearchParams } from "next/navigation";
+import { useMemo, useRef, useState } from "react";
+import { Controller, useForm, type Resolver } from "react-hook-form";
+import { useLiveQuery } from "dexie-react-hooks";
+import { getLocalDb } from "@/lib/client/db";
+import { loadBagForSheet } from "@/lib/client/fridge-reads";
+import { loadIdentity } from "@/lib/client/identity";
+import { queuePhoto } from "@/lib/client/photos";
+import { discardBag, pullBag, recordCheck, recordReading } from "@/lib/client/repo";
+import { formatBagCode } from "@/lib/domain/bag-codes";
+import { formatIsoDay } from "@/lib/domain/dates";
+import { formatTemperature, type TemperatureUnit } from "@/lib/domain/units";
+import { AppError } from "@/lib/errors";
+import { canRun } from "@/lib/schemas/mutations";
+import { checkActions, moistureLevels, mouldLevels, sproutLevels, vocabularyLabels, type Moisture, type Mould, type Sprouts } from "@/lib/schemas/vocabulary";
+import { Button } from "@/components/ui/Button";
+import { Card } from "@/components/ui/Card";
+import { Caution, cautionTexts } from "@/components/ui/Caution";
+import { Field, Input, TextArea } from "@/components/ui/Field";
+import { Segmented } from "@/components/ui/Segmented";
+import { StateBadge } from "@/components/ui/StateBadge";
+import { formatShortDay } from "@/components/bags/format-day";
+import { cadenceFor } from "@/components/today/round-input";
+import { allGoodDraft, planCheckSave, previewCheck, toggleAction, type CheckDraft, type CheckSavePlan } from "./check-draft";
+import { compressPhoto } from "./compress-photo";
+import { describeSheet } from "./sheet-view";
+
+// The check sheet: one tap for "all good", or the findings, actions, note, temperature and a photo.
+// Saved on the phone through the repositories (outbox), so it works with no signal.
+
+const moistureTone = (v: Moisture) => (v === "damp" ? "good" : "attention");
+const mouldTone = (v: Mould) => (v === "clean" ? "good" : v === "spots" ? "attention" : "danger");
+const sproutsTone = (v: Sprouts) => (v === "none" ? "neutral" : "good");
+const options = <T extends string>(values: readonly T[], labels: Record<T, string>) => values.map((value) => ({ value, label: labels[value] }));
+
+type Photo = { blob: Blob; url: string };
+
+export function CheckSheet() {
+  const params = useSearchParams();
+  const router = useRouter();
+  const bagId = params.get("bag");
+  const code = params.get("code");
+  const from = params.get("from");
+  const today = formatIsoDay(new Date());
+
+  const data = useLiveQuery(async () => {
+    const db = getLocalDb();
+    const [sheet, identity] = await Promise.all([loadBagForSheet(db, { bagId, code }), loadIdentity(db)]);
+    return { sheet, identity };
+  }, [bagId, code]);
+  const view = useMemo(() => (data?.sheet ? describeSheet(data.sheet, today) : null), [data?.sheet, today]);
+
+  const unit: TemperatureUnit = data?.identity?.farm.temperature_unit === "F" ? "F" : "C";
+  const cadence = cadenceFor(data?.identity?.farm.weekly_check_days);
+  const role = data?.identity?.role;
+  const mayRecord = role ? canRun(role, "check.record") : false;
+
+  const [saving, setSaving] = useState(false);
+  const [saveError, setSaveError] = useState<string | null>(null);
+  const [photo, setPhoto] = useState<Photo | null>(null);
+  const [photoNote, setPhotoNote] = useState<string | null>(null);
+
+  // The resolver is kept by the form from its first render; it reads the bag and unit through a ref.
+  const contextRef = useRef({ view, unit });
+  contextRef.current = { view, unit };
+  const resolver: Resolver<CheckDraft> = async (values) => {
+    const { view, unit } = contextRef.current;
+    if (!view) return { values: {}, errors: { root: { type: "bag", message: "No bag to check." } } };
+    const r = planCheckSave(values, { bag: view.forCheck, now: new Date(), today, unit, newId: () => crypto.randomUUID() });
+    if (r.ok) return { values, errors: {} };
+    const errors: Record<string, { type: string; message: string }> = {};
+    if (r.fields.temperature) errors.temperatureText = { type: "invalid", message: r.fields.temperature };
+    if (r.fields.note) errors.note = { type: "invalid", message: r.fields.note };
+    if (r.fields.form) errors.root = { type: "invalid", message: r.fields.form };
+    return { values: {}, errors };
+  };
+  const form = useForm<CheckDraft>({ defaultValues: allGoodDraft, resolver });
+  const draft = form.watch();
+
+  if (data === undefined) return <p className="text-ink-soft">Opening the bag…</p>;
+  if (!data.sheet || !view) {
+    const shown = code ? formatBagCode(code) : null;
+    return (
+      <Card role="alert" className="space-y-3">
+        <p className="font-semibold">{shown ? `No bag with code ${shown} on this farm.` : "This bag is not on this phone."}</p>
+        <p className="text-label text-ink-soft">
+          If the bag was added on another phone moments ago, connect once so this phone can fetch it. A label from another farm cannot be opened here.
+        </p>
+        <Link href="/scan" className="font-semibold text-glacier-700 underline">
+          Back to the scanner
+        </Link>
+      </Card>
+    );
+  }
+
+  const { row, forCheck, cautions, lotText } = view;
+  const preview = previewCheck(draft, forCheck, today, cadence, formatShortDay);
+  const lastCheck = data.sheet.lastCheck;
+
+  async function persist(plan: CheckSavePlan) {
+    setSaving(true);
+    setSaveError(null);
+    try {
+      await recordCheck(plan.check);
+      if (plan.reading) await recordReading(plan.reading);
+      if (photo) await queuePhoto({ bagId: forCheck.id, checkId: plan.check.id, blob: photo.blob });
+      if (plan.discard) await discardBag(plan.discard.id, plan.discard.discarded_on, plan.discard.discard_reason);
+      else if (plan.pull) await pullBag(plan.pull.id, plan.pull.pulled_on);
+      router.replace(from === "today" ? "/today" : `/scan?saved=${encodeURIComponent(row.code)}`);
+    } catch (e) {
+      setSaving(false);
+      setSaveError(e instanceof AppError ? e.message : "The check could not be saved on this phone. Try again; nothing was lost.");
+    }
+  }
+
+  function saveAllGood() {
+    const r = planCheckSave({ ...allGoodDraft }, { bag: forCheck, now: new Date(), today, unit, newId: () => crypto.randomUUID() });
+    if (r.ok) void persist(r.plan);
+  }
+
+  const onSubmit = form.handleSubmit((values) => {
+    const r = planCheckSave(values, { bag: forCheck, now: new Date(), today, unit, newId: () => crypto.randomUUID() });
+    if (r.ok) void persist(r.plan);
+  });
+
+  async function pickPhoto(file: File | undefined) {
+    setPhotoNote(null);
+    if (!file) return;
+    try {
+      const blob = await compressPhoto(file);
+      if (photo) URL.revokeObjectURL(photo.url);
+      setPhoto({ blob, url: URL.createObjectURL(blob) });
+    } catch (e) {
+      setPhotoNote(e instanceof Error ? e.message : "That photo could not be read.");
+    }
+  }
+
+  const adviceBox = { fine: "border-moss-600 bg-moss-100", attention: "border-wheat-600 bg-wheat-100", act_now: "border-ember-600 bg-ember-100" }[preview.advice.level];
+
+  return (
+    <div className="space-y-5">
+      <Card className="space-y-2" data-testid="bag-header">
+        <div className="flex items-start justify-between gap-2">
+          <p className="font-mono text-code font-bold tracking-widest text-ink" aria-label={`Bag code ${row.codeShown}`}>
+            {row.codeShown}
+          </p>
+          <StateBadge state={row.state} />
+        </div>
+        <h1 className="text-title font-bold leading-snug text-glacier-800">
+          {row.species}
+          {row.commonName ? <span className="block text-body font-medium text-ink-soft">{row.commonName}</span> : null}
+        </h1>
+        <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-0.5 text-label">
+          <dt className="text-ink-soft">Where</dt>
+          <dd className="font-semibold">
+            {row.storeName}
+            {row.box ? ` · ${row.box}` : ""}
+          </dd>
+          <dt className="text-ink-soft">Pull window</dt>
+          <dd className="font-semibold">
+            {row.window ? `${formatShortDay(row.window.opensOn)} – ${row.window.closesOn ? formatShortDay(row.window.closesOn) : "when roots show"}` : "No window (no protocol)"}
+          </dd>
+          {lotText ? (
+            <>
+              <dt className="text-ink-soft">Lot</dt>
+              <dd>{lotText}</dd>
+            </>
+          ) : null}
+          <dt className="text-ink-soft">Last check</dt>
+          <dd>
+            {lastCheck
+              ? `${formatShortDay(formatIsoDay(new Date(lastCheck.checked_at)))}: ${vocabularyLabels.moisture[lastCheck.moisture].toLowerCase()}, ${vocabularyLabels.mould[lastCheck.mould].toLowerCase()}, sprouts ${vocabularyLabels.sprouts[lastCheck.sprouts].toLowerCase()}`
+              : "None yet"}
+          </dd>
+        </dl>
+        {cautions.length ? (
+          <p className="flex flex-wrap gap-2">
+            {cautions.map((c) => (
+              <span key={c.key} className="rounded-full bg-wheat-100 px-2.5 py-0.5 text-label font-semibold text-wheat-700">
+                ⚠ {c.title}
+              </span>
+            ))}
+          </p>
+        ) : null}
+      </Card>
+
+      {!mayRecord ? (
+        <p role="note" className="rounded-card bg-rime-100 p-3 text-label">
+          {role ? "Your role on this farm can look at bags but not record checks." : "Sign in on this phone to record checks."}
+        </p>
+      ) : null}
+
+      {saveError ? (
+        <p role="alert" className="rounded-card bg-ember-100 p-3 font-semibold text-ember-700">
+          {saveError}
+        </p>
+      ) : null}
+
+      <Button tone="good" size="xl" className="w-full" disabled={!mayRecord || saving} onClick={saveAllGood} data-testid="all-good">
+        <span aria-hidden="true" className="text-display leading-none">✓</span>
+        <span className="text-left leading-tight">
+          All good
+          <span className="block text-label font-medium">damp, dry corners, clean, no sprouts</span>
+        </span>
+      </Button>
+
+      {cautions.map((c) => (
+        <Caution key={c.key} title={c.title}>
+          {c.text}
+          {c.source ? <span className="block text-ink-soft">Source: {c.source}</span> : null}
+        </Caution>
+      ))}
+
+      <form onSubmit={onSubmit} className="space-y-5" aria-labelledby="details-heading" noValidate>
+        <h2 id="details-heading" className="border-t-2 border-rime-200 pt-4 text-title font-bold text-glacier-800">
+          Or record what you found
+        </h2>
+        <Controller
+          control={form.control}
+          name="moisture"
+          render={({ field }) => (
+            <Segmented legend="Moisture" name="moisture" options={options(moistureLevels, vocabularyLabels.moisture)} value={field.value} onChange={field.onChange} tone={moistureTone} />
+          )}
+        />
+        <Controller
+          control={form.control}
+          name="mould"
+          render={({ field }) => (
+            <Segmented legend="Mould" name="mould" options={options(mouldLevels, vocabularyLabels.mould)} value={field.value} onChange={field.onChange} tone={mouldTone} />
+          )}
+        />
+        <Controller
+          control={form.control}
+          name="sprouts"
+          render={({ field }) => (
+            <Segmented legend="Sprouts" name="sprouts" options={options(sproutLevels, vocabularyLabels.sprouts)} value={field.value} onChange={field.onChange} tone={sproutsTone} />
+          )}
+        />
+
+        <section aria-live="polite" className={`space-y-2 rounded-card border-l-4 p-3 ${adviceBox}`} data-testid="advice">
+          <p className="font-semibold">{preview.advice.headline}</p>
+          {preview.advice.steps.length ? (
+            <ul className="list-disc space-y-1 pl-5 text-label">
+              {preview.advice.steps.map((s) => (
+                <li key={s}>{s}</li>
+              ))}
+            </ul>
+          ) : null}
+          <p className="text-label font-semibold">{preview.nextText}</p>
+          {preview.suggestPull ? <p className="text-label">Pulling it now? Tick “Pulled” below and the bag leaves the round.</p> : null}
+        </section>
+        {preview.showMouldCaution ? (
+          <Caution title="Mould" tone="strong">
+            {cautionTexts.mould}
+          </Caution>
+        ) : null}
+
+        <Controller
+          control={form.control}
+          name="actions"
+          render={({ field }) => (
+            <fieldset className="space-y-1">
+              <legend className="text-label font-semibold">What you did (tick all that apply)</legend>
+              <div className="grid grid-cols-2 gap-2">
+                {checkActions.map((a) => {
+                  const on = field.value.includes(a);
+                  return (
+                    <label
+                      key={a}
+                      className={`flex min-h-tap cursor-pointer items-center gap-2 rounded-card border-2 px-3 py-2 text-label font-semibold has-[:focus-visible]:outline has-[:focus-visible]:outline-3 has-[:focus-visible]:outline-glacier-500 ${
+                        on ? "border-glacier-700 bg-rime-200 text-glacier-800" : "border-rime-300 bg-white"
+                      }`}
+                    >
+                      <input type="checkbox" className="h-5 w-5 accent-glacier-700" checked={on} onChange={() => field.onChange(toggleAction(field.value, a))} />
+                      {vocabularyLabels.checkAction[a]}
+                    </label>
+                  );
+                })}
+              </div>
+            </fieldset>
+          )}
+        />
+
+        <Field label={`Store temperature (°${unit}), if you read it`} htmlFor="check-temperature" error={form.formState.errors.temperatureText?.message} hint="Optional; it is also kept as a reading for this store.">
+          <Input
+            id="check-temperature"
+            autoComplete="off"
+            placeholder={unit === "F" ? "e.g. 38" : "e.g. 3.5"}
+            {...form.register("temperatureText")}
+            aria-invalid={form.formState.errors.temperatureText ? true : undefined}
+          />
+        </Field>
+        {lastCheck?.temperature_c !== null && lastCheck?.temperature_c !== undefined ? (
+          <p className="-mt-3 text-label text-ink-soft">Last time: {formatTemperature(lastCheck.temperature_c, unit)}</p>
+        ) : null}
+
+        <Field label="Note" htmlFor="check-note" error={form.formState.errors.note?.message}>
+          <TextArea id="check-note" rows={2} {...form.register("note")} aria-invalid={form.formState.errors.note ? true : undefined} />
+        </Field>
+
+        <div className="space-y-2">
+          <label htmlFor="check-photo" className="flex min-h-14 cursor-pointer items-center justify-center gap-2 rounded-card border-2 border-dashed border-glacier-600 bg-white px-4 text-body font-semibold text-glacier-700">
+            <span aria-hidden="true">◉</span> {photo ? "Retake photo" : "Take a photo"}
+          </label>
+          <input id="check-photo" type="file" accept="image/*" capture="environment" className="sr-only" onChange={(e) => void pickPhoto(e.target.files?.[0])} />
+          {photoNote ? (
+            <p role="alert" className="text-label font-medium text-ember-700">
+              {photoNote}
+            </p>
+          ) : null}
+          {photo ? (
+            <div className="flex items-center gap-3">
+              {/* eslint-disable-next-line @next/next/no-img-element -- a local blob preview, not a served image */}
+              <img src={photo.url} alt="The photo that will be saved with this check" className="h-24 w-24 rounded-xl object-cover" />
+              <div className="text-label text-ink-soft">
+                <p>{Math.round(photo.blob.size / 1024)} kB, kept on the phone until it can be sent.</p>
+                <button
+                  type="button"
+                  className="min-h-tap font-semibold text-ember-700 underline"
+                  onClick={() => {
+                    URL.revokeObjectURL(photo.url);
+                    setPhoto(null);
+                  }}
+                >
+                  Remove photo
+                </button>
+              </div>
+            </div>
+          ) : null}
+        </div>
+
+        {form.formState.errors.root?.message ? (
+          <p role="alert" className="text-label font-medium text-ember-700">
+            {form.formState.errors.root.message}
+          </p>
+        ) : null}
+        <Button type="submit" tone="primary" size="lg" className="w-full" disabled={!mayRecord || saving}>
+          Save check
+        </Button>
+      </form>
+    </div>
+  );
+}
