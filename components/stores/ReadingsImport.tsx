@@ -7,7 +7,7 @@ import { parseReadingsCsv, type ReadingsCsvReport } from "@/lib/domain/csv-readi
 import type { TemperatureUnit } from "@/lib/domain";
 import { Button } from "@/components/ui/Button";
 import { Field, Select } from "@/components/ui/Field";
-import { nudgeSync } from "@/lib/client/sync-signal";
+import { getSyncEngine } from "@/lib/client/sync";
 import { ImportRowReport } from "./ImportRowReport";
 
 type Order = "auto" | "dmy" | "mdy";
@@ -31,7 +31,10 @@ export function useOnline(): boolean {
 /** What the server answered, in the shape both its success and its 422 carry. */
 interface ServerReport {
   imported?: number;
-  duplicates?: number;
+  toImport?: number;
+  message?: string;
+  counts?: ReadingsCsvReport["counts"];
+  rows?: CsvRowReport[];
   report?: Partial<ReadingsCsvReport>;
   error?: { code: string; message: string; fields?: Record<string, string> };
 }
@@ -48,6 +51,8 @@ export function ReadingsImport({ storeId, farmUnit, timeZone }: { storeId: strin
   const [order, setOrder] = useState<Order>("auto");
   const [unit, setUnit] = useState<UnitChoice>("file");
   const [sending, setSending] = useState(false);
+  const [inputKey, setInputKey] = useState(0);
+  const [serverCheck, setServerCheck] = useState<string | null>(null);
   const [result, setResult] = useState<{ ok: boolean; message: string; rows: CsvRowReport[] } | null>(null);
 
   const options = { unit: unit === "file" ? farmUnit : unit, dateOrder: order, timeZone, notAfter: new Date(Date.now() + 86_400_000).toISOString() };
@@ -70,30 +75,50 @@ export function ReadingsImport({ storeId, farmUnit, timeZone }: { storeId: strin
     }
   }
 
+  function endpoint(dryRun: boolean): string {
+    const query = new URLSearchParams({ dateOrder: order, unit: unit === "file" ? farmUnit : unit, ...(dryRun ? { dryRun: "1" } : {}) });
+    return `/api/stores/${storeId}/readings/import?${query}`;
+  }
+
+  async function post(dryRun: boolean): Promise<{ status: number; body: ServerReport }> {
+    const res = await fetch(endpoint(dryRun), { method: "POST", headers: { "content-type": "text/csv" }, body: file, credentials: "same-origin" });
+    return { status: res.status, body: (await res.json().catch(() => ({}))) as ServerReport };
+  }
+
+  // Once the phone's preview reads well, ask the server which readings it already has (nothing is written).
+  const previewOk = preview?.ok ?? false;
+  useEffect(() => {
+    setServerCheck(null);
+    if (!file || !previewOk || !online) return;
+    let live = true;
+    post(true)
+      .then(({ status, body }) => {
+        if (!live) return;
+        if (status === 200 && typeof body.toImport === "number") setServerCheck(body.toImport === 0 ? "Every reading in this file is already recorded." : `${body.toImport} new reading${body.toImport === 1 ? "" : "s"}; the rest are already recorded.`);
+        else if (body.error) setServerCheck(body.error.message);
+      })
+      .catch(() => undefined);
+    return () => {
+      live = false;
+    };
+  }, [file, previewOk, online, order, unit]);
+
   async function send() {
     if (!file) return;
     setSending(true);
     setResult(null);
     try {
-      const query = new URLSearchParams({ dateOrder: order, ...(unit === "file" ? { unit: farmUnit } : { unit }) });
-      const res = await fetch(`/api/stores/${storeId}/readings/import?${query}`, {
-        method: "POST",
-        headers: { "content-type": "text/csv" },
-        body: file,
-        credentials: "same-origin",
-      });
-      const body = (await res.json().catch(() => ({}))) as ServerReport;
-      if (res.ok) {
-        const n = body.imported ?? body.report?.counts?.ok ?? 0;
-        const d = body.duplicates ?? body.report?.counts?.duplicates ?? 0;
-        setResult({ ok: true, message: `Imported ${n} reading${n === 1 ? "" : "s"}${d ? `; ${d} already known were skipped` : ""}. The chart updates as the phone syncs.`, rows: [] });
+      const { status, body } = await post(false);
+      if (status === 200 || status === 201) {
+        setResult({ ok: true, message: `${body.message ?? "Imported."} The chart updates as the phone syncs.`, rows: [] });
         setFile(null);
         setText(null);
-        nudgeSync();
+        setInputKey((k) => k + 1);
+        void getSyncEngine().syncNow();
       } else {
         setResult({
           ok: false,
-          message: `Nothing was imported. ${body.error?.message ?? `The server answered ${res.status}.`}`,
+          message: `Nothing was imported. ${body.error?.message ?? `The server answered ${status}.`}`,
           rows: (body.report?.rows ?? []).filter((r) => r.status !== "ok"),
         });
       }
@@ -113,6 +138,7 @@ export function ReadingsImport({ storeId, farmUnit, timeZone }: { storeId: strin
       ) : null}
       <Field label="Logger file (CSV)" htmlFor="readings-file" hint="Time and temperature columns; °C or °F; common date formats.">
         <input
+          key={inputKey}
           id="readings-file"
           type="file"
           accept=".csv,text/csv,text/plain"
@@ -159,6 +185,7 @@ export function ReadingsImport({ storeId, farmUnit, timeZone }: { storeId: strin
             ))}
           </ul>
           <ImportRowReport rows={preview.rows} />
+          {serverCheck ? <p className="text-label font-medium text-glacier-800">{serverCheck}</p> : null}
           {!preview.ok && preview.counts.errors ? (
             <p className="text-label text-ink">Fix these rows in the file and pick it again: the import takes the whole file or nothing.</p>
           ) : null}
