@@ -370,3 +370,10 @@ export function parseTimestamp(text: string, options: TimestampOptions): Parsed<
   if (offset !== null) return { ok: true, value: wall - offset * 60_000 };
   return { ok: true, value: convertZonedTimeToEpoch(wall, options.timeZone) };
 }
+
+/** The calendar day (yyyy-MM-dd) it is in `zone` at instant `at`: a farm's "today". */
+export function findZonedDay(at: Date, zone: string): string {
+  const parts: Record<string, string> = {};
+  for (const p of zoneFormatter(zone).formatToParts(at)) parts[p.type] = p.value;
+  return `${parts.year}-${parts.month}-${parts.day}`;
+}
