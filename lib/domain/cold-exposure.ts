@@ -176,7 +176,7 @@ export function measureColdExposure(readings: readonly TemperatureReading[], opt
   result.calendarDays = result.totalHours / 24;
   result.effectiveColdDays = Math.min(result.hoursInBand / 24, result.calendarDays);
   result.lostDays = Math.max(0, Math.round(result.calendarDays - result.effectiveColdDays));
-  result.excursions = findExcursions(inPeriod.length ? points : [], band);
+  result.excursions = findExcursions(points, band);
 
   if (points.length > 0) result.assumptions.push("Each reading is taken to hold until the next one.");
   if (result.gaps.length > 0) {

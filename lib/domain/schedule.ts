@@ -201,7 +201,8 @@ export function scheduleNextCheck(input: NextCheckInput): NextCheck | null {
     note = reason === "window_opens" ? "Pull window opens: start daily checks." : "Routine check.";
   }
 
-  if (input.nextMoveOn && input.nextMoveOn > last && input.nextMoveOn <= on) {
+  // A move still not recorded stays due (and shows as late) until the bag's move is recorded.
+  if (input.nextMoveOn && input.nextMoveOn <= on) {
     on = input.nextMoveOn;
     reason = "move_to_next_phase";
     note = "Warm phase done: move the bag to the cold store.";

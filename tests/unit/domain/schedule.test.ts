@@ -132,6 +132,7 @@ describe("next check", () => {
     ["pull now on first roots (about 10 % chitted: Forest Research)", { lastCheck: check("2024-01-20", { sprouts: "first_roots" }) }, "2024-01-20", "pull_now"],
     ["every 3 days when configured", { cadence: { everyDaysBeforeWindow: 3, followUpDays: { soggy: 1, dry: 2, mouldSpots: 1, mouldRescued: 1 } } }, "2024-01-04", "weekly"],
     ["move to the cold when the warm phase ends", { lastCheck: check("2024-01-05"), nextMoveOn: "2024-01-10" }, "2024-01-10", "move_to_next_phase"],
+    ["keeps asking for a move not yet recorded", { lastCheck: check("2024-01-12"), nextMoveOn: "2024-01-10" }, "2024-01-10", "move_to_next_phase"],
   ] as const)("%s", (_name, over, on, reason) => {
     expect(scheduleNextCheck({ ...base, ...over } as NextCheckInput)).toMatchObject({ on, reason });
   });
