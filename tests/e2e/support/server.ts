@@ -121,7 +121,7 @@ export async function startApp(opts: StartOptions = {}): Promise<AppServer> {
     const child = spawn(process.execPath, ["node_modules/next/dist/bin/next", "start", "-p", String(port), "-H", "127.0.0.1"], {
       cwd: ROOT,
       stdio: ["ignore", log, log],
-      env: { PATH: process.env.PATH ?? "", HOME: process.env.HOME ?? os.tmpdir(), ...env } as NodeJS.ProcessEnv,
+      env: { PATH: process.env.PATH ?? "", HOME: process.env.HOME ?? os.tmpdir(), ...env } as unknown as NodeJS.ProcessEnv,
     });
     fs.closeSync(log);
     await waitForHealth(origin, child);
