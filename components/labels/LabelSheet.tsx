@@ -1,0 +1,206 @@
+"use client";
+
+import { useSearchParams } from "next/navigation";
+import { useMemo, useState } from "react";
+import { useLiveQuery } from "dexie-react-hooks";
+import { buildBagRows, type BagRow } from "@/components/bags/bag-rows";
+import { Button } from "@/components/ui/Button";
+import { Card } from "@/components/ui/Card";
+import { cautionTexts } from "@/components/ui/Caution";
+import { Field, Select } from "@/components/ui/Field";
+import { StateBadge } from "@/components/ui/StateBadge";
+import { getLocalDb } from "@/lib/client/db";
+import { loadFarmRows } from "@/lib/client/fridge-reads";
+import { formatIsoDay } from "@/lib/domain/dates";
+import { a4Grid, buildLabels, drawQr, labelledStates, labelSizes, pageLabels, type LabelData, type LabelSize } from "./label-data";
+
+// Pick bags and print their labels. Sizes are real millimetres/inches, so what prints is what is shown.
+
+/** Seed, not food: the line every label with room carries, because the label stays with the bag in a shared fridge. */
+const labelCaution = "Seed, not food. Keep sealed, away from children.";
+
+export function LabelSheet() {
+  const params = useSearchParams();
+  const idsParam = params.get("ids");
+  const today = formatIsoDay(new Date());
+  const farm = useLiveQuery(() => loadFarmRows(getLocalDb()), []);
+  const rows = useMemo(() => (farm ? buildBagRows(farm, today) : []), [farm, today]);
+
+  const [size, setSize] = useState<LabelSize>((params.get("size") as LabelSize) in labelSizes ? (params.get("size") as LabelSize) : "a4");
+  const [storeId, setStoreId] = useState<string>(params.get("store") ?? "");
+  const [picked, setPicked] = useState<Set<string> | null>(idsParam ? new Set(idsParam.split(",").filter(Boolean)) : null);
+
+  const candidates = useMemo(
+    () => rows.filter((r) => (picked?.has(r.id) || labelledStates.includes(r.state)) && (!storeId || r.storeId === storeId)),
+    [rows, picked, storeId],
+  );
+  // Until the grower changes it, every bag still in (or bound for) the cold is ticked.
+  const chosen = picked ?? new Set(candidates.map((r) => r.id));
+  const selectedRows = candidates.filter((r) => chosen.has(r.id));
+  const origin = typeof window === "undefined" ? "" : window.location.origin;
+  const labels = useMemo(() => (farm ? buildLabels(selectedRows, farm, origin) : []), [farm, selectedRows, origin]);
+
+  function toggle(id: string) {
+    const next = new Set(chosen);
+    if (next.has(id)) next.delete(id);
+    else next.add(id);
+    setPicked(next);
+  }
+
+  return (
+    <div className="space-y-5">
+      <style>{printCss(size)}</style>
+      <div className="no-print space-y-4">
+        <header>
+          <h1 className="text-title font-bold text-glacier-800">Print bag labels</h1>
+          <p className="text-label text-ink-soft">Each label carries a QR code your phone reads, the bag code in large type, species, lot, start date and pull window.</p>
+        </header>
+        <Card className="space-y-3">
+          <Field label="Label size" htmlFor="label-size">
+            <Select id="label-size" value={size} onChange={(e) => setSize(e.target.value as LabelSize)}>
+              {(Object.keys(labelSizes) as LabelSize[]).map((k) => (
+                <option key={k} value={k}>
+                  {labelSizes[k].name}
+                </option>
+              ))}
+            </Select>
+          </Field>
+          <Field label="Cold store" htmlFor="label-store">
+            <Select id="label-store" value={storeId} onChange={(e) => setStoreId(e.target.value)}>
+              <option value="">All cold stores</option>
+              {farm?.stores.filter((s) => !s.deleted_at).map((s) => (
+                <option key={s.id} value={s.id}>
+                  {s.name}
+                </option>
+              ))}
+            </Select>
+          </Field>
+          <p className="text-label text-ink-soft">
+            {size === "a4"
+              ? `Print at 100 % (“actual size”), no margins; 21 labels per A4 sheet (top margin ${a4Grid.topMm} mm, left ${a4Grid.leftMm} mm).`
+              : "Print at 100 % (“actual size”) to a label printer; one label per page."}
+          </p>
+          <Button size="lg" className="w-full" disabled={labels.length === 0} onClick={() => window.print()}>
+            Print {labels.length} {labels.length === 1 ? "label" : "labels"}
+          </Button>
+        </Card>
+        <p className="rounded-card border-l-4 border-wheat-600 bg-wheat-100 p-3 text-label">
+          <strong>On every label:</strong> “{labelCaution}” ({cautionTexts.foodFridge}) Toxic and treated seed is marked on the label itself, because the label stays with the bag in a shared fridge.
+        </p>
+
+        <fieldset className="space-y-2">
+          <legend className="text-label font-semibold">Bags ({selectedRows.length} of {candidates.length} ticked)</legend>
+          <div className="flex gap-2">
+            <Button tone="quiet" onClick={() => setPicked(new Set(candidates.map((r) => r.id)))}>
+              Tick all
+            </Button>
+            <Button tone="quiet" onClick={() => setPicked(new Set())}>
+              Tick none
+            </Button>
+          </div>
+          {farm && candidates.length === 0 ? <p className="text-ink-soft">No bags planned or in the cold here.</p> : null}
+          <ul className="max-h-80 space-y-1 overflow-y-auto rounded-card border border-rime-200 bg-white p-2">
+            {candidates.map((r) => (
+              <BagPick key={r.id} row={r} checked={chosen.has(r.id)} onToggle={() => toggle(r.id)} />
+            ))}
+          </ul>
+        </fieldset>
+        <h2 className="text-title font-bold text-glacier-800">Preview</h2>
+      </div>
+
+      <div className="overflow-x-auto">
+        <div className="label-print" data-testid="label-sheet">
+          {pageLabels(labels, size).map((page, i) => (
+            <div key={i} className={`label-page label-page-${size}`}>
+              {page.map((l) => (
+                <BagLabel key={l.id} label={l} size={size} />
+              ))}
+            </div>
+          ))}
+        </div>
+      </div>
+    </div>
+  );
+}
+
+function BagPick({ row, checked, onToggle }: { row: BagRow; checked: boolean; onToggle: () => void }) {
+  return (
+    <li>
+      <label className="flex min-h-tap cursor-pointer items-center gap-3 rounded-xl px-2 py-1 hover:bg-rime-50">
+        <input type="checkbox" className="h-5 w-5 accent-glacier-700" checked={checked} onChange={onToggle} />
+        <span className="font-mono font-bold tracking-wider">{row.codeShown}</span>
+        <span className="min-w-0 flex-1 truncate text-label">{row.commonName || row.species}</span>
+        <StateBadge state={row.state} />
+      </label>
+    </li>
+  );
+}
+
+function QrSvg({ text, className }: { text: string; className: string }) {
+  const qr = useMemo(() => drawQr(text), [text]);
+  return (
+    <svg viewBox={`0 0 ${qr.size} ${qr.size}`} className={className} role="img" aria-label={`QR code for ${text}`} shapeRendering="crispEdges">
+      <rect width={qr.size} height={qr.size} fill="#fff" />
+      <path d={qr.path} fill="#000" />
+    </svg>
+  );
+}
+
+function BagLabel({ label, size }: { label: LabelData; size: LabelSize }) {
+  const mark = label.treated ? "⚠ TREATED SEED" : label.toxic ? "⚠ TOXIC SEED" : null;
+  return (
+    <article className={`bag-label bag-label-${size}`} data-code={label.code} aria-label={`Label for bag ${label.codeShown}`}>
+      <QrSvg text={label.payload} className="bag-label-qr" />
+      <div className="bag-label-text">
+        <p className="bag-label-code">{label.codeShown}</p>
+        <p className="bag-label-species">
+          {size === "small" ? label.commonName || label.species : label.species}
+          {size !== "small" && label.commonName ? <span className="bag-label-common"> · {label.commonName}</span> : null}
+        </p>
+        {size !== "small" && label.lotText ? <p className="bag-label-line">Lot: {label.lotText}</p> : null}
+        {size !== "small" ? <p className="bag-label-line">{label.startText}</p> : null}
+        <p className="bag-label-line bag-label-window">{label.windowText}</p>
+        {size === "large" && label.whereText ? <p className="bag-label-line">{label.whereText}</p> : null}
+        {mark ? <p className="bag-label-mark">{mark}</p> : null}
+        {size !== "small" ? <p className="bag-label-caution">{labelCaution}</p> : null}
+      </div>
+    </article>
+  );
+}
+
+/** Page and label geometry per size. Real units (in, mm) so the printout matches the stock. */
+function printCss(size: LabelSize): string {
+  const s = labelSizes[size];
+  const page =
+    size === "a4"
+      ? `@page { size: A4; margin: 0; }`
+      : `@page { size: ${s.widthMm}mm ${s.heightMm}mm; margin: 0; }`;
+  return `
+.label-print { color: #000; font-family: var(--font-sans); }
+.label-page { background: #fff; }
+.label-page-a4 { width: 210mm; min-height: 297mm; box-sizing: border-box; padding: ${a4Grid.topMm}mm 0 0 ${a4Grid.leftMm}mm;
+  display: grid; grid-template-columns: repeat(${a4Grid.columns}, ${s.widthMm}mm); grid-auto-rows: ${s.heightMm}mm; column-gap: ${a4Grid.columnGapMm}mm; align-content: start; }
+.label-page-small, .label-page-large { width: ${s.widthMm}mm; height: ${s.heightMm}mm; margin-bottom: 4mm; }
+.bag-label { width: ${s.widthMm}mm; height: ${s.heightMm}mm; box-sizing: border-box; overflow: hidden; display: flex; gap: 1.5mm; align-items: center;
+  padding: ${size === "small" ? "1mm" : "2mm"}; break-inside: avoid; page-break-inside: avoid; outline: 1px dashed #a9c3cf; outline-offset: -1px; }
+.bag-label-qr { flex: none; height: 100%; width: auto; aspect-ratio: 1; }
+.bag-label-text { min-width: 0; flex: 1; line-height: 1.15; }
+.bag-label-code { font-family: ui-monospace, "SFMono-Regular", Menlo, Consolas, monospace; font-weight: 800; letter-spacing: 0.04em;
+  font-size: ${size === "large" ? "24pt" : size === "a4" ? "15pt" : "12pt"}; white-space: nowrap; }
+.bag-label-species { font-weight: 700; font-size: ${size === "large" ? "11pt" : "7.5pt"}; overflow: hidden; text-overflow: ellipsis; white-space: nowrap; }
+.bag-label-species { font-style: normal; }
+.bag-label-common { font-weight: 500; }
+.bag-label-line { font-size: ${size === "large" ? "9pt" : "6.5pt"}; white-space: nowrap; overflow: hidden; text-overflow: ellipsis; }
+.bag-label-window { font-weight: 700; }
+.bag-label-mark { font-size: ${size === "large" ? "9pt" : "6.5pt"}; font-weight: 800; border: 0.3mm solid #000; display: inline-block; padding: 0 0.8mm; margin-top: 0.5mm; }
+.bag-label-caution { font-size: ${size === "large" ? "7pt" : "5.5pt"}; margin-top: 0.5mm; }
+@media print {
+  ${page}
+  body * { visibility: hidden; }
+  .label-print, .label-print * { visibility: visible; }
+  .label-print { position: absolute; left: 0; top: 0; }
+  .label-page { break-after: page; page-break-after: always; margin: 0; }
+  .label-page:last-child { break-after: auto; page-break-after: auto; }
+  .bag-label { outline: none; }
+}`;
+}
