@@ -68,7 +68,7 @@ export interface ColdExposure {
 
 const hourMs = 3_600_000;
 
-interface ParsedReading {
+export interface ParsedReading {
   t: number;
   c: number;
   at: string;
