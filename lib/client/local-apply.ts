@@ -92,18 +92,27 @@ export type PulledChange = { table: string; row: Record<string, unknown> };
 export async function applyPulledPage(db: RimebookDB, changes: PulledChange[], s: LocalStamp): Promise<void> {
   const touched = new Set<string>();
   const known = new Set<string>(farmTables);
+  const puts = new Map<string, Record<string, unknown>[]>();
+  const deletes = new Map<string, string[]>();
+  const audit: Record<string, unknown>[] = [];
   for (const { table, row } of changes) {
     if (table === "audit_log") {
-      await db.audit_log.put(row as never);
+      audit.push(row);
       continue;
     }
     if (!known.has(table)) continue;
     const id = String(row.id);
     touched.add(`${table}:${id}`);
     if (table === "memberships") touched.add("memberships:*");
-    if (row.deleted_at) await db.table(table).delete(id);
-    else await db.table(table).put(row);
+    const bucket = row.deleted_at ? deletes : puts;
+    const list = (bucket.get(table) ?? []) as unknown[];
+    list.push(row.deleted_at ? id : row);
+    bucket.set(table, list as never);
   }
+  // Bulk writes per table: a first pull of thousands of rows stays quick on a phone.
+  for (const [table, rows] of puts) await db.table(table).bulkPut(rows);
+  for (const [table, ids] of deletes) await db.table(table).bulkDelete(ids);
+  if (audit.length) await db.audit_log.bulkPut(audit as never[]);
   touched.add("farms");
   await reapplyPending(db, s, touched);
 }

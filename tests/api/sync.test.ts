@@ -169,7 +169,7 @@ describe("sync routes", () => {
     ]);
     expect(r.body.rejected).toEqual([]);
     const { body } = await pullAs(owner, 0, 100);
-    const p = body.changes.find((c: { table: string }) => c.table === "protocols" && c.row.id === id).row;
+    const p = body.changes.find((c: { table: string; row: { id: string } }) => c.table === "protocols" && c.row.id === id).row;
     expect(p.phases[0].sources[0]).toMatchObject({ minDays: 30, maxDays: 60 });
     expect(p).toMatchObject({ medicinal: false, is_farm_own: true, note: "plan for the earliest date" });
     expect(body.changes.find((c: { table: string }) => c.table === "stores").row.boxes).toEqual(["A", "B"]);

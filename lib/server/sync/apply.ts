@@ -22,24 +22,50 @@ export type PushResult = { applied: string[]; rejected: RejectedMutation[] };
 /** Rejections the phone should simply send again later (nothing wrong with the mutation itself). */
 export const retryableCodes = new Set(["server_error"]);
 
-type Ctx = { trx: Knex.Transaction; member: PushMember; mutationId: string; at: string };
+const CHUNK = 100;
+type Seen = { farm_id: string; outcome: string };
+
+type Ctx = { trx: Knex.Transaction; member: PushMember; mutationId: string; at: string; known: Set<string> };
 
 export async function applyPush(db: Knex, member: PushMember, push: PushRequest, now: () => Date = () => new Date()): Promise<PushResult> {
   const result: PushResult = { applied: [], rejected: [] };
-  for (const m of push.mutations) {
-    const outcome = await applyOne(db, member, push.deviceId, m, now().toISOString());
-    if (outcome === "applied") result.applied.push(m.id);
-    else result.rejected.push({ id: m.id, error: outcome });
+  // One look-up for the whole batch: which ids were seen before (replays, earlier refusals).
+  const seen = new Map<string, Seen>();
+  const ids = push.mutations.map((m) => m.id);
+  for (let i = 0; i < ids.length; i += 500) {
+    const rows: (Seen & { id: string })[] = await db("applied_mutations").whereIn("id", ids.slice(i, i + 500)).select("id", "farm_id", "outcome");
+    for (const r of rows) seen.set(r.id, r);
+  }
+  const known = new Set<string>(); // rows seen to belong to the farm during this push
+  // Commits are the slow part on SQLite: a chunk shares one outer transaction, and each mutation
+  // runs in its own nested transaction (a savepoint) inside it, so a refused one rolls back alone.
+  for (let i = 0; i < push.mutations.length; i += CHUNK) {
+    const chunk = push.mutations.slice(i, i + CHUNK);
+    const outcomes = await db.transaction(async (outer) => {
+      const list: ("applied" | RejectedMutation["error"])[] = [];
+      for (const m of chunk) {
+        const outcome = await applyOne(outer, member, push.deviceId, m, now().toISOString(), known, seen);
+        // The same id twice in one push: the second is a replay of the first.
+        seen.set(m.id, { farm_id: member.farmId, outcome: outcome === "applied" ? "applied" : "rejected" });
+        list.push(outcome);
+      }
+      return list;
+    });
+    chunk.forEach((m, j) => {
+      const outcome = outcomes[j];
+      if (outcome === "applied") result.applied.push(m.id);
+      else result.rejected.push({ id: m.id, error: outcome });
+    });
   }
   return result;
 }
 
-async function applyOne(db: Knex, member: PushMember, deviceId: string, m: Mutation, at: string): Promise<"applied" | RejectedMutation["error"]> {
-  const seen = await db("applied_mutations").where({ id: m.id }).first("farm_id", "outcome");
+async function applyOne(db: Knex.Transaction, member: PushMember, deviceId: string, m: Mutation, at: string, known: Set<string>, seenIds: Map<string, Seen>): Promise<"applied" | RejectedMutation["error"]> {
+  const seen = seenIds.get(m.id);
   if (seen && seen.farm_id !== member.farmId) return { code: "conflict", message: "This change's id is already taken. It was not saved." };
   if (seen?.outcome === "applied") return "applied"; // a replay: report it, change nothing
 
-  const record = (trx: Knex | Knex.Transaction, outcome: "applied" | "rejected", error: unknown = null) =>
+  const record = (trx: Knex.Transaction, outcome: "applied" | "rejected", error: unknown = null) =>
     trx("applied_mutations")
       .insert({
         id: m.id,
@@ -61,9 +87,7 @@ async function applyOne(db: Knex, member: PushMember, deviceId: string, m: Mutat
       throw new AppError("forbidden", `A ${vocabularyLabels.role[member.role]} cannot do this (${describe(m.name)}). Ask the farm's owner.`);
     }
     await db.transaction(async (trx) => {
-      // Two tabs pushing the same outbox at once: the second finds the first's record and stops.
-      if (await trx("applied_mutations").where({ id: m.id, outcome: "applied" }).first("id")) return;
-      const ctx: Ctx = { trx, member, mutationId: m.id, at };
+      const ctx: Ctx = { trx, member, mutationId: m.id, at, known };
       for (const effect of effectsOf(m.name, args as never)) await applyEffect(ctx, effect);
       await record(trx, "applied");
     });
@@ -97,9 +121,10 @@ async function ownRow(ctx: Ctx, table: EffectTable, id: string): Promise<Record<
 async function assertReferences(ctx: Ctx, table: EffectTable, values: Record<string, unknown>): Promise<void> {
   for (const [column, target] of Object.entries(rowReferences[table] ?? {})) {
     const id = values[column];
-    if (id === null || id === undefined) continue;
+    if (id === null || id === undefined || ctx.known.has(`${target}:${String(id)}`)) continue;
     const row = await ctx.trx(target).where({ id, farm_id: ctx.member.farmId }).first("id");
     if (!row) throw notFound(labelOf(target));
+    ctx.known.add(`${target}:${String(id)}`); // farm rows are never hard-deleted, so this holds for the push
   }
 }
 
