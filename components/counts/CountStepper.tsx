@@ -5,8 +5,8 @@ import type { Sowing } from "@/lib/schemas/sowing";
 import { recordCount } from "@/lib/client/repo";
 import { Button } from "@/components/ui/Button";
 import { Field, Input } from "@/components/ui/Field";
-import { describeSaveError } from "@/components/season/save-error";
-import { formatDay } from "@/components/season/format";
+import { describeSaveError } from "@/components/bags/save-error";
+import { formatShortDay as formatDay } from "@/components/bags/format-day";
 import { findStartingTotal, judgeCountEntry, stepTotal, type DailyTotal } from "./count-series";
 
 /** Big −/+ steppers for the running total of seedlings up on a day; saves on the phone (works with no signal). */

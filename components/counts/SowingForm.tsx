@@ -9,7 +9,7 @@ import type { Bag } from "@/lib/schemas/bag";
 import { pullBag, recordSowing } from "@/lib/client/repo";
 import { Button } from "@/components/ui/Button";
 import { Field, Input, TextArea } from "@/components/ui/Field";
-import { describeSaveError } from "@/components/season/save-error";
+import { describeSaveError } from "@/components/bags/save-error";
 
 const SowingFormSchema = SowingInput.pick({ sown_on: true, tray: true, cells: true, seeds_sown: true, note: true });
 type SowingFormValues = z.input<typeof SowingFormSchema>;

@@ -5,8 +5,9 @@ import { useLiveQuery } from "dexie-react-hooks";
 import { getLocalDb } from "@/lib/client/db";
 import { Button } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
-import { todayOnPhone, useMember } from "@/components/season/use-member";
-import { formatDay } from "@/components/season/format";
+import { useMember } from "@/components/season/use-member";
+import { useToday } from "@/components/bags/use-farm-rows";
+import { formatShortDay as formatDay } from "@/components/bags/format-day";
 import { pickDailyTotals, summarizeSowing } from "./count-series";
 import { CountStepper } from "./CountStepper";
 import { GerminationCurve } from "./GerminationCurve";
@@ -20,7 +21,7 @@ import { SowingForm } from "./SowingForm";
 export function SowingPanel({ bagId }: { bagId: string }) {
   const { can } = useMember();
   const [adding, setAdding] = useState(false);
-  const today = todayOnPhone();
+  const today = useToday();
   const data = useLiveQuery(async () => {
     const db = getLocalDb();
     const bag = await db.bags.get(bagId);

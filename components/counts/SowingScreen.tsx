@@ -5,7 +5,7 @@ import { useSearchParams } from "next/navigation";
 import { useLiveQuery } from "dexie-react-hooks";
 import { getLocalDb } from "@/lib/client/db";
 import { Card, PageHeader } from "@/components/ui/Card";
-import { formatDay } from "@/components/season/format";
+import { formatShortDay as formatDay } from "@/components/bags/format-day";
 import { SowingPanel } from "./SowingPanel";
 
 /** /sowing?bag=… : one bag's sowing and counts; without a bag, the bags ready to sow or being counted. */

@@ -5,7 +5,6 @@ import { getLocalDb } from "@/lib/client/db";
 import { META, readMeta, type PhoneIdentity } from "@/lib/client/meta";
 import { canRun, type ActionName, type MutationName } from "@/lib/schemas/mutations";
 import type { TemperatureUnit } from "@/lib/domain";
-import { formatIsoDay } from "@/lib/domain/dates";
 
 /** The signed-in member as this phone remembers it (undefined while loading, null when signed out). */
 export function useMember(): { identity: PhoneIdentity | null | undefined; can: (name: MutationName | ActionName) => boolean; unit: TemperatureUnit } {
@@ -16,9 +15,4 @@ export function useMember(): { identity: PhoneIdentity | null | undefined; can: 
     can: (name) => (role ? canRun(role, name) : false),
     unit: identity?.farm.temperature_unit === "F" ? "F" : "C",
   };
-}
-
-/** Today on this phone's calendar. */
-export function todayOnPhone(): string {
-  return formatIsoDay(new Date());
 }

@@ -13,7 +13,7 @@ import { Button } from "@/components/ui/Button";
 import { Card, PageHeader } from "@/components/ui/Card";
 import { Field, Input, Select } from "@/components/ui/Field";
 import { SessionActions } from "@/components/team/SessionActions";
-import { describeSaveError } from "@/components/season/save-error";
+import { describeSaveError } from "@/components/bags/save-error";
 import { useMember } from "@/components/season/use-member";
 import { countDaysInMonth, describeMonthDay, joinMonthDay, monthNames, splitMonthDay } from "./frost-date";
 

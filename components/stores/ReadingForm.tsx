@@ -10,7 +10,7 @@ import { formatTemperature, parseTemperature, type TemperatureUnit } from "@/lib
 import { recordReading } from "@/lib/client/repo";
 import { Button } from "@/components/ui/Button";
 import { Field, Input } from "@/components/ui/Field";
-import { describeSaveError } from "@/components/season/save-error";
+import { describeSaveError } from "@/components/bags/save-error";
 
 // What the grower types: a temperature in words ("4", "39 °F", "−18") and a local date-time.
 const ReadingForm = z.object({

@@ -9,7 +9,7 @@ import { createStore, updateStore } from "@/lib/client/repo";
 import { Button } from "@/components/ui/Button";
 import { Caution, cautionTexts } from "@/components/ui/Caution";
 import { Field, Input, Select, TextArea } from "@/components/ui/Field";
-import { describeSaveError } from "@/components/season/save-error";
+import { describeSaveError } from "@/components/bags/save-error";
 import { useState } from "react";
 
 // Boxes are typed one per line; the shared schema still checks each one.

@@ -12,8 +12,9 @@ import { Button } from "@/components/ui/Button";
 import { Card, PageHeader } from "@/components/ui/Card";
 import { Caution, cautionTexts } from "@/components/ui/Caution";
 import { StateBadge } from "@/components/ui/StateBadge";
-import { todayOnPhone, useMember } from "@/components/season/use-member";
-import { formatDay, formatStamp } from "@/components/season/format";
+import { useMember } from "@/components/season/use-member";
+import { useToday } from "@/components/bags/use-farm-rows";
+import { formatShortDay as formatDay, formatStamp } from "@/components/bags/format-day";
 import { toProtocolForPlan } from "@/components/plan/plan-rows";
 import { buildChartPoints, describeBand, measureBagCold, measureStore } from "./store-metrics";
 import { ReadingsChart } from "./ReadingsChart";
@@ -35,6 +36,7 @@ export function StoreView() {
   const [range, setRange] = useState<(typeof ranges)[number]["key"]>("30");
   const [editing, setEditing] = useState(false);
   const [panel, setPanel] = useState<"reading" | "import" | null>(null);
+  const today = useToday();
 
   const data = useLiveQuery(async () => {
     const db = getLocalDb();
@@ -62,7 +64,6 @@ export function StoreView() {
   const points = buildChartPoints(readings, unit, sinceMs);
   const exposure = measureStore(readings, sinceMs);
   const band = describeBand(unit);
-  const today = todayOnPhone();
   const bagRows = bags
     .map((bag) => {
       const lot = lots.find((l) => l.id === bag.lot_id) ?? null;
