@@ -91,6 +91,7 @@ export type PulledChange = { table: string; row: Record<string, unknown> };
  */
 export async function applyPulledPage(db: RimebookDB, changes: PulledChange[], s: LocalStamp): Promise<void> {
   const touched = new Set<string>();
+  const removed = new Set<string>();
   const known = new Set<string>(farmTables);
   const puts = new Map<string, Record<string, unknown>[]>();
   const deletes = new Map<string, string[]>();
@@ -104,6 +105,7 @@ export async function applyPulledPage(db: RimebookDB, changes: PulledChange[], s
     const id = String(row.id);
     touched.add(`${table}:${id}`);
     if (table === "memberships") touched.add("memberships:*");
+    if (row.deleted_at) removed.add(`${table}:${id}`);
     const bucket = row.deleted_at ? deletes : puts;
     const list = (bucket.get(table) ?? []) as unknown[];
     list.push(row.deleted_at ? id : row);
@@ -114,14 +116,15 @@ export async function applyPulledPage(db: RimebookDB, changes: PulledChange[], s
   for (const [table, ids] of deletes) await db.table(table).bulkDelete(ids);
   if (audit.length) await db.audit_log.bulkPut(audit as never[]);
   touched.add("farms");
-  await reapplyPending(db, s, touched);
+  await reapplyPending(db, s, touched, removed);
 }
 
 /** Unsent mutations, oldest first, applied again over rows the server just replaced. */
-export async function reapplyPending(db: RimebookDB, s: LocalStamp, touched: Set<string> | null): Promise<void> {
+export async function reapplyPending(db: RimebookDB, s: LocalStamp, touched: Set<string> | null, removed: Set<string> = new Set()): Promise<void> {
   const pending = await db.outbox.where("status").equals("pending").sortBy("n");
   for (const entry of pending) {
-    const effects = effectsOfEntry(entry);
+    // A row the server has deleted is not brought back by its own (already sent) creation.
+    const effects = effectsOfEntry(entry).filter((e) => !((e.op === "insert" || e.op === "upsert") && removed.has(touchedKeys(e)[0])));
     if (touched && !effects.some((e) => touchedKeys(e).some((k) => touched.has(k)))) continue;
     await applyEffectsLocally(db, effects, { ...s, at: entry.at });
   }

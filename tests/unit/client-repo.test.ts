@@ -4,7 +4,7 @@ import { ZodError } from "zod";
 import { RimebookDB, setLocalDb } from "@/lib/client/db";
 import { adoptIdentity } from "@/lib/client/identity";
 import { createBag, createLot, createTrial, discardBag, recordSowing, repository, updateBag, updateLot } from "@/lib/client/repo";
-import { reapplyPending, applyPulledPage } from "@/lib/client/local-apply";
+import { applyPulledPage } from "@/lib/client/local-apply";
 import { mutationNames, mutationTable } from "@/lib/schemas/mutations";
 import { effectsOf } from "@/lib/schemas/mutation-effects";
 
@@ -60,7 +60,7 @@ describe("repository functions", () => {
   it("a trial writes its arms; a sowing marks the bag sown only once", async () => {
     const lot = await createLot({ species: "Lupinus perennis" });
     const trial = await createTrial({ name: "Fridge or freezer", lot_id: lot.id, arms: [{ label: "Fridge 60 days" }, { label: "Freezer 60 days" }] });
-    expect((await db.trial_arms.where("trial_id").equals(trial.id).toArray()).map((a) => [a.label, a.position])).toEqual([["Fridge 60 days", 0], ["Freezer 60 days", 1]]);
+    expect((await db.trial_arms.where("trial_id").equals(trial.id).sortBy("position")).map((a) => [a.label, a.position])).toEqual([["Fridge 60 days", 0], ["Freezer 60 days", 1]]);
     const bag = await createBag({ code: "M2K7QX-A", lot_id: lot.id });
     await recordSowing({ bag_id: bag.id, sown_on: "2027-03-01", seeds_sown: 50 });
     await recordSowing({ bag_id: bag.id, sown_on: "2027-03-08", seeds_sown: 20 });
@@ -77,10 +77,9 @@ describe("repository functions", () => {
     await db.transaction("rw", db.tables, () => applyPulledPage(db, [{ table: "bags", row: serverRow }], { farmId, userId, at: new Date().toISOString() }));
     expect(await db.bags.get(bag.id)).toMatchObject({ note: "mine, not yet sent", box: "Box 9", seq: 41 });
     // a tombstone removes the row; a pending edit of a removed row has nothing to edit
-    await db.transaction("rw", db.tables, async () => {
-      await applyPulledPage(db, [{ table: "bags", row: { ...serverRow, deleted_at: "2026-12-01T00:00:00.000Z" } }], { farmId, userId, at: "x" });
-      await reapplyPending(db, { farmId, userId, at: "x" }, null);
-    });
+    await db.transaction("rw", db.tables, () =>
+      applyPulledPage(db, [{ table: "bags", row: { ...serverRow, deleted_at: "2026-12-01T00:00:00.000Z" } }], { farmId, userId, at: "x" }),
+    );
     expect(await db.bags.get(bag.id)).toBeUndefined();
     expect(await db.lots.get(lot.id)).toBeTruthy();
   });
