@@ -1,6 +1,6 @@
 // `npm run demo`: migrate, load the demo farm, build, then serve the app with the local mail catcher.
 // Everything runs on the embedded SQLite default (data/rimebook.sqlite) unless DATABASE_URL says otherwise.
-import { spawn, spawnSync } from "node:child_process";
+import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { randomBytes } from "node:crypto";
 import fs from "node:fs";
 import path from "node:path";
@@ -31,7 +31,7 @@ run("Applying database migrations", "npm", ["run", "--silent", "db:migrate"]);
 run("Loading the demo farm (Bramblewick Native Nursery)", "npm", ["run", "--silent", "db:seed"]);
 if (process.env.DEMO_SKIP_BUILD !== "1") run("Building the app", "npm", ["run", "--silent", "build"]);
 
-const children = [];
+const children: ChildProcess[] = [];
 if (fs.existsSync("scripts/mail-fake.ts")) {
   children.push(spawn("node", ["node_modules/tsx/dist/cli.mjs", "--conditions=react-server", "scripts/mail-fake.ts"], { stdio: "inherit", env: process.env }));
 }
