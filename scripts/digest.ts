@@ -1,0 +1,34 @@
+// `npm run digest`: sends today's digest for every farm (each on its own calendar day) through the
+// configured SMTP server (SMTP_URL; the local mail fake by default). Safe to run twice: a farm's
+// digest goes out once a day.
+import { getDb } from "@/lib/server/db";
+import { runDigestForAllFarms } from "@/lib/server/digest";
+
+const words: Record<string, string> = {
+  sent: "sent",
+  already_sent: "already sent today",
+  nothing_due: "nothing due, no e-mail",
+  no_recipients: "nobody asked for the digest",
+  failed: "not sent (mail server unreachable?); run again later",
+};
+
+async function main() {
+  const db = getDb();
+  try {
+    const outcomes = await runDigestForAllFarms(db);
+    const names = new Map((await db("farms").select("id", "name")).map((f: { id: string; name: string }) => [f.id, f.name]));
+    for (const o of outcomes) {
+      const who = o.status === "sent" ? ` to ${o.recipients} member${o.recipients === 1 ? "" : "s"}${o.failed ? ` (${o.failed} failed)` : ""}` : "";
+      console.log(`${names.get(o.farmId) ?? o.farmId} · ${o.day}: ${words[o.status]}${who}`);
+    }
+    if (outcomes.length === 0) console.log("No farms yet.");
+    process.exitCode = outcomes.some((o) => o.status === "failed") ? 1 : 0;
+  } finally {
+    await db.destroy();
+  }
+}
+
+main().catch((err) => {
+  console.error(err);
+  process.exit(1);
+});
