@@ -19,5 +19,5 @@ export async function proxy(req: NextRequest) {
 }
 
 export const config = {
-  matcher: ["/today/:path*", "/scan/:path*", "/bags/:path*", "/lots/:path*", "/protocols/:path*", "/stores/:path*", "/plan/:path*", "/trials/:path*", "/team/:path*", "/settings/:path*", "/labels/:path*"],
+  matcher: ["/today/:path*", "/scan/:path*", "/check/:path*", "/bags/:path*", "/lots/:path*", "/protocols/:path*", "/stores/:path*", "/plan/:path*", "/trials/:path*", "/team/:path*", "/settings/:path*", "/labels/:path*"],
 };

@@ -6,7 +6,7 @@ import { useMemo, useRef, useState } from "react";
 import { Controller, useForm, type Resolver } from "react-hook-form";
 import { useLiveQuery } from "dexie-react-hooks";
 import { getLocalDb } from "@/lib/client/db";
-import { loadBagForSheet } from "@/lib/client/fridge-reads";
+import { loadBagForSheet, loadFarmFetched } from "@/lib/client/fridge-reads";
 import { loadIdentity } from "@/lib/client/identity";
 import { queuePhoto } from "@/lib/client/photos";
 import { discardBag, pullBag, recordCheck, recordReading } from "@/lib/client/repo";
@@ -48,8 +48,8 @@ export function CheckSheet() {
 
   const data = useLiveQuery(async () => {
     const db = getLocalDb();
-    const [sheet, identity] = await Promise.all([loadBagForSheet(db, { bagId, code }), loadIdentity(db)]);
-    return { sheet, identity };
+    const [sheet, identity, fetched] = await Promise.all([loadBagForSheet(db, { bagId, code }), loadIdentity(db), loadFarmFetched(db)]);
+    return { sheet, identity, fetched };
   }, [bagId, code]);
   const view = useMemo(() => (data?.sheet ? describeSheet(data.sheet, today) : null), [data?.sheet, today]);
 
@@ -81,6 +81,26 @@ export function CheckSheet() {
   const draft = form.watch();
 
   if (data === undefined) return <p className="text-ink-soft">Opening the bag…</p>;
+  if (!data.identity) {
+    const back = `/check?${params.toString()}`;
+    return (
+      <Card role="alert" className="space-y-3">
+        <p className="font-semibold">Sign in to open this bag.</p>
+        <p className="text-label text-ink-soft">Rimebook keeps your farm on this phone after the first sign-in, so labels open even with no signal.</p>
+        <Link href={`/sign-in?next=${encodeURIComponent(back)}`} className="font-semibold text-glacier-700 underline">
+          Sign in
+        </Link>
+      </Card>
+    );
+  }
+  if (!data.sheet && !data.fetched) {
+    return (
+      <Card role="status" className="space-y-2">
+        <p className="font-semibold">Fetching your farm onto this phone…</p>
+        <p className="text-label text-ink-soft">This needs signal once; afterwards bags open with no signal.</p>
+      </Card>
+    );
+  }
   if (!data.sheet || !view) {
     const shown = code ? formatBagCode(code) : null;
     return (

@@ -6,6 +6,7 @@ import { useCallback, useEffect, useRef, useState } from "react";
 import { useLiveQuery } from "dexie-react-hooks";
 import type { IScannerControls } from "@zxing/browser";
 import { getLocalDb } from "@/lib/client/db";
+import { loadFarmFetched } from "@/lib/client/fridge-reads";
 import { formatBagCode } from "@/lib/domain/bag-codes";
 import { Button } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
@@ -31,6 +32,7 @@ export function Scanner() {
   const [typedResult, setTypedResult] = useState<CodeLookup | null>(null);
 
   const codes = useLiveQuery(async () => indexFarmCodes(await getLocalDb().bags.toArray()), []);
+  const fetched = useLiveQuery(() => loadFarmFetched(getLocalDb()), []);
   const codesRef = useRef<FarmCodes | undefined>(undefined);
   codesRef.current = codes;
   const lastTextRef = useRef<string>("");
@@ -126,6 +128,12 @@ export function Scanner() {
           Today&apos;s round
         </Link>
       </header>
+
+      {fetched === false ? (
+        <p role="status" className="rounded-card bg-rime-100 p-3 text-label">
+          Your farm is still being fetched onto this phone (this needs signal once); until then a label may show as unknown.
+        </p>
+      ) : null}
 
       {saved ? (
         <p role="status" className="rounded-card border-l-4 border-moss-600 bg-moss-100 p-3 font-semibold text-moss-700" data-testid="saved-notice">

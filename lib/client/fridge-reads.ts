@@ -5,6 +5,7 @@ import type { Lot } from "@/lib/schemas/lot";
 import type { Store } from "@/lib/schemas/store";
 import { normalizeCrockford } from "@/lib/domain/bag-codes";
 import type { ProtocolRow, RimebookDB } from "./db";
+import { META, readMeta } from "./meta";
 
 // Reads for the screens at the fridge (Today, Scan, Check, Labels). Only reads: writes go through the
 // repository functions. Components call these inside useLiveQuery so they follow the phone store live.
@@ -62,4 +63,9 @@ export async function loadBagForSheet(db: RimebookDB, ref: { bagId?: string | nu
     loadLastCheck(db, bag.id),
   ]);
   return { bag, lot, protocol: protocol && !protocol.deleted_at ? protocol : null, store: store ?? null, lastCheck };
+}
+
+/** Whether the farm has been fetched onto this phone at least once (before that, "no such bag" means "not yet"). */
+export async function loadFarmFetched(db: RimebookDB): Promise<boolean> {
+  return (await readMeta<boolean>(db, META.firstPullDone)) === true;
 }
