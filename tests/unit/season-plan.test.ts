@@ -1,4 +1,7 @@
 import { describe, expect, it } from "vitest";
+import { layOutTimeline } from "@/components/plan/timeline";
+import { PlanForm, planFormToItem, planItemToForm } from "@/components/plan/plan-form";
+import { PlanItemInput } from "@/lib/schemas/plan";
 import { computePlanRow, findFrostDay, pickPlanProtocol, summarizeSpeciesHistory, toProtocolForPlan } from "@/components/plan/plan-rows";
 import type { ProtocolForPlan } from "@/lib/domain/schedule";
 
@@ -134,5 +137,65 @@ describe("pickPlanProtocol and findFrostDay", () => {
 
   it("maps a stored protocol row for the domain", () => {
     expect(toProtocolForPlan({ species: "X", phases: [], effective_band: { minC: 2, maxC: 8 } })).toEqual({ species: "X", phases: [], effectiveBand: { minC: 2, maxC: 8 } });
+  });
+});
+
+describe("layOutTimeline", () => {
+  // Sambucus: warm 90 then cold 90, sown 2027-04-14 (Young & Young 1992 shape); cold-only 14–28 days sown 2027-03-29.
+  const rows = [
+    { id: "a", label: "Sambucus", sowOn: "2027-04-14", phases: [{ kind: "warm_moist" as const, startBy: "2026-10-16", startFrom: "2026-10-16" }, { kind: "cold_moist" as const, startBy: "2027-01-14", startFrom: "2027-01-14" }] },
+    { id: "b", label: "Asclepias", sowOn: "2027-03-29", phases: [{ kind: "cold_moist" as const, startBy: "2027-03-15", startFrom: "2027-03-01" }] },
+  ];
+  const t = layOutTimeline(rows, "2026-12-01", 0)!;
+
+  it.each([
+    { what: "the range runs from the earliest start to the latest sowing", got: [t.from, t.to], want: ["2026-10-16", "2027-04-14"] },
+    { what: "the first bar starts at the left edge", got: t.rows[0].bars[0].left, want: 0 },
+    { what: "the last sowing is at the right edge", got: t.rows[0].sow, want: 100 },
+    { what: "phases meet: warm ends where cold starts", got: t.rows[0].bars[0].left + t.rows[0].bars[0].width, want: t.rows[0].bars[1].left },
+    { what: "the last bar ends at the sowing date", got: t.rows[1].bars[0].left + t.rows[1].bars[0].width, want: t.rows[1].sow },
+    // 2026-10-16 → 2026-12-01 is 46 of 180 days
+    { what: "today sits 46/180 of the way", got: t.today, want: (100 * 46) / 180 },
+  ])("$what", ({ got, want }) => {
+    if (typeof want === "number") expect(got as number).toBeCloseTo(want, 9);
+    else expect(got).toEqual(want);
+  });
+
+  it("draws the lead-in only where a start range exists, and one tick per month", () => {
+    expect(t.rows[0].leadIn).toBeNull();
+    expect(t.rows[1].leadIn?.width).toBeCloseTo((100 * 14) / 180, 9);
+    expect(t.months.map((m) => m.label)).toEqual(["Nov", "Dec", "Jan", "Feb", "Mar", "Apr"]);
+    expect(layOutTimeline([], "2026-12-01")).toBeNull();
+    expect(layOutTimeline(rows, "2028-01-01")?.today).toBeNull();
+  });
+});
+
+describe("plan form ↔ stored plan row", () => {
+  it.each([
+    { name: "frost rule with shares", rule: { anchor: "frost" as const, weeks: -6, place: "indoor" as const }, germ: 0.6, surv: 0.8, pct: [60, 80] },
+    { name: "set date, farm history", rule: { anchor: "date" as const, date: "2027-04-14", place: "outdoor" as const }, germ: null, surv: null, pct: [null, null] },
+  ])("$name survives the round trip", ({ rule, germ, surv, pct }) => {
+    const stored = { species: "Baptisia australis", lot_id: null, protocol_id: null, target_plants: 40, note: null, sowing_rule: rule, expected_germination: germ, expected_survival: surv };
+    const form = planItemToForm(stored);
+    expect([form.germinationPct, form.survivalPct]).toEqual(pct);
+    const parsed = PlanForm.parse(form);
+    const back = planFormToItem(parsed, { season: 2027, bag_id: null });
+    expect(back).toMatchObject({ ...stored, season: 2027 });
+    expect(PlanItemInput.safeParse({ ...back, id: "0b6f1a3e-1c1b-4a5e-9a5e-1f1f1f1f1f1f" }).success).toBe(true);
+  });
+
+  it.each([
+    { field: "germinationPct", value: 0, says: "above 0" },
+    { field: "germinationPct", value: 120, says: "at most 100" },
+    { field: "weeks", value: 2.5, says: "whole weeks" },
+  ])("refuses $field = $value", ({ field, value, says }) => {
+    const r = PlanForm.safeParse({ ...planItemToForm(), species: "X", [field]: value });
+    expect(r.success).toBe(false);
+    expect(r.error?.issues.map((i) => i.message).join(" ")).toContain(says);
+  });
+
+  it("a set-date row needs its date", () => {
+    const r = PlanForm.safeParse({ ...planItemToForm(), species: "X", anchor: "date", date: "" });
+    expect(r.error?.issues[0].message).toBe("Pick the sowing date.");
   });
 });

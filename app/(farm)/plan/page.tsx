@@ -1,0 +1,8 @@
+import type { Metadata } from "next";
+import { PlanScreen } from "@/components/plan/PlanScreen";
+
+export const metadata: Metadata = { title: "Season plan · Rimebook" };
+
+export default function PlanPage() {
+  return <PlanScreen />;
+}
