@@ -1,0 +1,74 @@
+"use client";
+
+import { useEffect, useState, useSyncExternalStore } from "react";
+import { useLiveQuery } from "dexie-react-hooks";
+import { getLocalDb, type OutboxEntry, type PendingPhoto } from "./db";
+import { META, type PhoneIdentity } from "./meta";
+import { getSyncEngine, outboxCounts, type SyncState } from "./sync";
+
+// React reads of the phone store and the sync loop. Components read with these (or useLiveQuery on
+// getLocalDb()) and write only through lib/client/repo.ts.
+
+const serverState: SyncState = { phase: "idle", lastSyncAt: null, error: null, firstPull: null, retryAt: null };
+const noCounts = { pending: 0, rejected: 0, photos: 0 };
+
+export type SyncStatus = SyncState & { pending: number; rejected: number; photos: number; online: boolean };
+
+/** Whether the browser thinks it has a network (the sync loop finds out for sure). */
+export function useOnline(): boolean {
+  return useSyncExternalStore(
+    (cb) => {
+      window.addEventListener("online", cb);
+      window.addEventListener("offline", cb);
+      return () => {
+        window.removeEventListener("online", cb);
+        window.removeEventListener("offline", cb);
+      };
+    },
+    () => navigator.onLine,
+    () => true,
+  );
+}
+
+/** The sync loop's phase plus live outbox counts, for the status pill and its details. */
+export function useSyncStatus(): SyncStatus {
+  const engine = typeof window === "undefined" ? null : getSyncEngine();
+  const state = useSyncExternalStore(
+    (cb) => (engine ? engine.subscribe(cb) : () => {}),
+    () => (engine ? engine.getState() : serverState),
+    () => serverState,
+  );
+  const counts = useLiveQuery(() => outboxCounts(), [], noCounts) ?? noCounts;
+  return { ...state, ...counts, online: useOnline() };
+}
+
+/** The signed-in member as this phone remembers it; null when nobody is, undefined while loading. */
+export function useIdentity(): PhoneIdentity | null | undefined {
+  return useLiveQuery(async () => ((await getLocalDb().meta.get(META.identity))?.value as PhoneIdentity | undefined) ?? null, []);
+}
+
+/** Changes the server refused (kept until the person dismisses or retries them), newest first. */
+export function useRejectedMutations(): OutboxEntry[] {
+  return useLiveQuery(async () => (await getLocalDb().outbox.where("status").equals("rejected").sortBy("n")).reverse(), [], []) ?? [];
+}
+
+/** Photos still on the phone (waiting, or refused with a reason). */
+export function usePendingPhotos(bagId?: string): PendingPhoto[] {
+  return (
+    useLiveQuery(() => (bagId ? getLocalDb().pending_photos.where("bag_id").equals(bagId).toArray() : getLocalDb().pending_photos.toArray()), [bagId], []) ?? []
+  );
+}
+
+/** A displayable address for a photo: the local Blob while it waits, the server's URL once uploaded. */
+export function usePhotoSrc(photoId: string | null | undefined): string | null {
+  const pending = useLiveQuery(() => (photoId ? getLocalDb().pending_photos.get(photoId) : undefined), [photoId]);
+  const [blobUrl, setBlobUrl] = useState<string | null>(null);
+  useEffect(() => {
+    if (!pending) return setBlobUrl(null);
+    const url = URL.createObjectURL(pending.blob);
+    setBlobUrl(url);
+    return () => URL.revokeObjectURL(url);
+  }, [pending]);
+  if (!photoId) return null;
+  return blobUrl ?? `/api/uploads/${photoId}`;
+}
