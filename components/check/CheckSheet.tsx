@@ -129,7 +129,10 @@ export function CheckSheet() {
       if (photo) await queuePhoto({ bagId: forCheck.id, checkId: plan.check.id, blob: photo.blob });
       if (plan.discard) await discardBag(plan.discard.id, plan.discard.discarded_on, plan.discard.discard_reason);
       else if (plan.pull) await pullBag(plan.pull.id, plan.pull.pulled_on);
-      router.replace(from === "today" ? "/today" : `/scan?saved=${encodeURIComponent(row.code)}`);
+      // Back where the grower came from: the round, the bag's page, or (by default) the scanner for the next bag.
+      router.replace(
+        from === "today" ? "/today" : from === "bag" ? `/bags/view?id=${encodeURIComponent(forCheck.id)}` : `/scan?saved=${encodeURIComponent(row.code)}`,
+      );
     } catch (e) {
       setSaving(false);
       setSaveError(e instanceof AppError ? e.message : "The check could not be saved on this phone. Try again; nothing was lost.");
