@@ -149,21 +149,28 @@ export function readCsvTable(
   for (let i = 0; i < start.index; i++) offset += firstLines[i].length + 1;
   const body = normalized.slice(offset);
   const lines: CsvLine[] = [];
-  let line = start.index + 1;
-  let cursor = 0;
-  Papa.parse<string[]>(body, {
-    delimiter: start.delimiter,
-    newline: "\n",
-    skipEmptyLines: false,
-    step: (result) => {
-      lines.push({ row: line, cells: result.data.map((c) => (typeof c === "string" ? c.trim() : "")) });
-      const end = result.meta.cursor;
-      for (let i = cursor; i < end; i++) if (body.charCodeAt(i) === 10) line++;
-      // The cursor stops before the line break that ends the row.
-      if (body.charCodeAt(end) === 10) line++;
-      cursor = end + 1;
-    },
-  });
+  const clean = (row: unknown[]) => row.map((c) => (typeof c === "string" ? c.trim() : ""));
+  if (!body.includes('"')) {
+    // No quotes, so no cell spans lines: row i is line i (the fast path for logger files).
+    const rows = Papa.parse<string[]>(body, { delimiter: start.delimiter, newline: "\n", skipEmptyLines: false }).data;
+    rows.forEach((row, i) => lines.push({ row: start.index + 1 + i, cells: clean(row) }));
+  } else {
+    let line = start.index + 1;
+    let cursor = 0;
+    Papa.parse<string[]>(body, {
+      delimiter: start.delimiter,
+      newline: "\n",
+      skipEmptyLines: false,
+      step: (result) => {
+        lines.push({ row: line, cells: clean(result.data) });
+        const end = result.meta.cursor;
+        for (let i = cursor; i < end; i++) if (body.charCodeAt(i) === 10) line++;
+        // The cursor stops before the line break that ends the row.
+        if (body.charCodeAt(end) === 10) line++;
+        cursor = end + 1;
+      },
+    });
+  }
   const header = start.header ? (lines.shift()?.cells ?? null) : null;
   return {
     delimiter: start.delimiter,
@@ -337,8 +344,24 @@ function zoneFormatter(zone: string): Intl.DateTimeFormat {
   return f;
 }
 
+const offsetCache = new Map<string, number>();
+const quarterHour = 900_000;
+
 /** Milliseconds the zone's wall clock is ahead of UTC at instant `t`. */
 function zoneOffsetMs(t: number, zone: string): number {
+  if (zone === "UTC") return 0;
+  // Offsets change only on quarter-hour boundaries, so one answer serves a whole quarter hour (a logger file has thousands).
+  const key = `${zone}|${Math.floor(t / quarterHour)}`;
+  let offset = offsetCache.get(key);
+  if (offset === undefined) {
+    if (offsetCache.size > 50_000) offsetCache.clear();
+    offset = measureZoneOffset(Math.floor(t / quarterHour) * quarterHour, zone);
+    offsetCache.set(key, offset);
+  }
+  return offset;
+}
+
+function measureZoneOffset(t: number, zone: string): number {
   const parts: Record<string, number> = {};
   for (const p of zoneFormatter(zone).formatToParts(new Date(t))) if (p.type !== "literal") parts[p.type] = Number(p.value);
   const wall = Date.UTC(parts.year, parts.month - 1, parts.day, parts.hour, parts.minute, parts.second);

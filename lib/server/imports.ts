@@ -105,8 +105,13 @@ async function reserveSeqs(trx: Knex.Transaction, farmId: string, n: number): Pr
 
 const insertChunk = 400;
 
-async function insertRows(trx: Knex.Transaction, table: string, rows: Record<string, unknown>[]): Promise<void> {
+/** Inserts new farm rows, each with a fresh id, the farm, its stamps and its own seq, in chunks SQLite accepts. */
+async function insertStamped(trx: Knex.Transaction, farmId: string, table: "readings" | "lots", values: Record<string, unknown>[], at: string): Promise<number> {
+  if (values.length === 0) return 0;
+  const first = await reserveSeqs(trx, farmId, values.length);
+  const rows = values.map((v, i) => ({ id: randomUUID(), ...v, farm_id: farmId, created_at: at, updated_at: at, seq: first + i, deleted_at: null }));
   for (let i = 0; i < rows.length; i += insertChunk) await trx(table).insert(rows.slice(i, i + insertChunk));
+  return rows.length;
 }
 
 // ---- Readings ----
@@ -139,23 +144,8 @@ async function findStoredInstants(db: Knex | Knex.Transaction, storeId: string, 
 
 /** Writes the readings (already checked and free of twins) with their farm, stamps and seq. Takes the transaction first. */
 export async function insertImportedReadings(trx: Knex.Transaction, farmId: string, storeId: string, readings: readonly CsvReading[], at = nowIso()): Promise<number> {
-  if (readings.length === 0) return 0;
-  const first = await reserveSeqs(trx, farmId, readings.length);
-  const rows = readings.map((r, i) => ({
-    id: randomUUID(),
-    farm_id: farmId,
-    store_id: storeId,
-    taken_at: r.takenAt,
-    temperature_c: r.temperatureC,
-    origin: "import",
-    check_id: null,
-    created_at: at,
-    updated_at: at,
-    seq: first + i,
-    deleted_at: null,
-  }));
-  await insertRows(trx, "readings", rows);
-  return rows.length;
+  const values = readings.map((r) => ({ store_id: storeId, taken_at: r.takenAt, temperature_c: r.temperatureC, origin: "import", check_id: null }));
+  return insertStamped(trx, farmId, "readings", values, at);
 }
 
 // ---- Lots ----
@@ -177,19 +167,8 @@ export async function insertImportedLots(trx: Knex.Transaction, farmId: string, 
     }
     for (const [k, ids] of seen) bySpecies.set(k, ids.length === 1 ? ids[0] : null);
   }
-  const first = await reserveSeqs(trx, farmId, lots.length);
-  const rows = lots.map(({ lot }, i) => ({
-    id: randomUUID(),
-    farm_id: farmId,
-    ...lot,
-    protocol_id: bySpecies.get(lot.species.trim().toLowerCase()) ?? null,
-    created_at: at,
-    updated_at: at,
-    seq: first + i,
-    deleted_at: null,
-  }));
-  await insertRows(trx, "lots", rows);
-  return rows.length;
+  const values = lots.map(({ lot }) => ({ ...lot, protocol_id: bySpecies.get(lot.species.trim().toLowerCase()) ?? null }));
+  return insertStamped(trx, farmId, "lots", values, at);
 }
 
 async function findStoredLotKeys(db: Knex | Knex.Transaction, farmId: string): Promise<Set<string>> {
