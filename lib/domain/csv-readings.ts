@@ -55,7 +55,9 @@ export function findHeaderUnit(header: string): TemperatureUnit | null {
   return null;
 }
 
-const isTemperatureHeader = (words: string[], raw: string) => words.some((w) => temperatureWords.has(w)) || findHeaderUnit(raw) !== null;
+const isTemperatureHeader = (words: string[]) => words.some((w) => temperatureWords.has(w));
+// "°C" or "Value (°F)" alone, when no column says temperature.
+const isUnitOnlyHeader = (words: string[], raw: string) => findHeaderUnit(raw) !== null && !words.some((w) => ["dew", "point", "humidity", "rh"].includes(w));
 const isTimeHeader = (words: string[]) => words.some((w) => timeWords.has(w) || w === "at");
 const isDateOnlyHeader = (words: string[]) => words.includes("date") && !words.includes("time");
 const isClockOnlyHeader = (words: string[]) => words.includes("time") && !words.includes("date") && !words.includes("datetime") && !words.includes("timestamp");
@@ -67,7 +69,8 @@ interface Layout {
 }
 
 function findLayout(header: readonly string[]): Layout | null {
-  const temperature = findColumn(header, isTemperatureHeader);
+  let temperature = findColumn(header, isTemperatureHeader);
+  if (temperature < 0) temperature = findColumn(header, isUnitOnlyHeader);
   if (temperature < 0) return null;
   const dateCol = findColumn(header, isDateOnlyHeader, [temperature]);
   const clockCol = findColumn(header, isClockOnlyHeader, [temperature, dateCol]);

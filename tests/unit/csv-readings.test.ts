@@ -85,6 +85,18 @@ describe("parseReadingsCsv: files that import", () => {
       ],
     ],
     [
+      "the temperature column, not the dew point or humidity beside it",
+      "Time,Dew point (°C),Humidity (%RH),Temperature (°C)\n2026-01-15 08:00,1.5,80,4.5\n",
+      {},
+      [{ takenAt: "2026-01-15T08:00:00.000Z", temperatureC: 4.5 }],
+    ],
+    [
+      "a unit-only header",
+      "Timestamp,°F\n2026-01-15 08:00,50\n",
+      {},
+      [{ takenAt: "2026-01-15T08:00:00.000Z", temperatureC: 10 }],
+    ],
+    [
       "a freezer in °C with a unit in each cell",
       "Time,Temperature\n2026-01-15 08:00,-18 °C\n",
       {},
