@@ -2,8 +2,9 @@
 
 import Link from "next/link";
 import { useSearchParams } from "next/navigation";
-import { useEffect, useMemo, useState } from "react";
+import { useMemo, useState } from "react";
 import { useLiveQuery } from "dexie-react-hooks";
+import { usePhotoSrc } from "@/lib/client/hooks";
 import { getLocalDb, type PendingPhoto } from "@/lib/client/db";
 import type { Check } from "@/lib/schemas/check";
 import type { Photo } from "@/lib/schemas/photo";
@@ -278,33 +279,21 @@ function ColdDays({
   );
 }
 
-function PendingThumb({ photo }: { photo: PendingPhoto }) {
-  const [url, setUrl] = useState<string | null>(null);
-  useEffect(() => {
-    const u = URL.createObjectURL(photo.blob);
-    setUrl(u);
-    return () => URL.revokeObjectURL(u);
-  }, [photo.blob]);
+/** One photo: the phone's own copy while it waits to upload, the farm's copy after (usePhotoSrc decides). */
+function Thumb({ id, waiting, refused }: { id: string; waiting: boolean; refused: boolean }) {
+  const src = usePhotoSrc(id);
   return (
-    <figure className="relative">
-      {url ? (
-        // eslint-disable-next-line @next/next/no-img-element
-        <img src={url} alt="Photo waiting to upload" className="h-20 w-20 rounded-xl object-cover" />
+    <figure>
+      {src ? (
+        <a href={src} target="_blank" rel="noreferrer" className="block">
+          {/* eslint-disable-next-line @next/next/no-img-element */}
+          <img src={src} alt={waiting ? "Photo waiting to upload" : "Photo from a check"} loading="lazy" className="h-20 w-20 rounded-xl bg-rime-200 object-cover" />
+        </a>
       ) : (
         <div className="h-20 w-20 rounded-xl bg-rime-200" />
       )}
-      <figcaption className="mt-0.5 text-center text-[0.75rem] text-ink-soft">{photo.error ? "Not uploaded" : "Waiting"}</figcaption>
+      {waiting ? <figcaption className="mt-0.5 text-center text-[0.8125rem] text-ink-soft">{refused ? "Not uploaded" : "Waiting"}</figcaption> : null}
     </figure>
-  );
-}
-
-function PhotoThumb({ photo }: { photo: Photo }) {
-  const src = `/api/uploads/${encodeURIComponent(photo.id)}`;
-  return (
-    <a href={src} target="_blank" rel="noreferrer" className="block">
-      {/* eslint-disable-next-line @next/next/no-img-element */}
-      <img src={src} alt="Photo from a check" loading="lazy" className="h-20 w-20 rounded-xl bg-rime-200 object-cover" />
-    </a>
   );
 }
 
@@ -313,10 +302,10 @@ function Thumbs({ photos, pending }: { photos: readonly Photo[]; pending: readon
   return (
     <div className="flex flex-wrap gap-2">
       {photos.map((p) => (
-        <PhotoThumb key={p.id} photo={p} />
+        <Thumb key={p.id} id={p.id} waiting={false} refused={false} />
       ))}
-      {pending.map((p) => (
-        <PendingThumb key={p.id} photo={p} />
+      {pending.filter((p) => !photos.some((x) => x.id === p.id)).map((p) => (
+        <Thumb key={p.id} id={p.id} waiting refused={Boolean(p.error)} />
       ))}
     </div>
   );
