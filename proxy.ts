@@ -18,6 +18,8 @@ export async function proxy(req: NextRequest) {
   return NextResponse.redirect(url);
 }
 
+// Deny by default: every page except the public ones (landing, sign-in/up, invite, reset, the dev
+// mailbox), the API (each handler answers 401 itself), framework assets and files with an extension.
 export const config = {
-  matcher: ["/today/:path*", "/scan/:path*", "/check/:path*", "/bags/:path*", "/lots/:path*", "/protocols/:path*", "/stores/:path*", "/plan/:path*", "/trials/:path*", "/team/:path*", "/settings/:path*", "/labels/:path*"],
+  matcher: ["/((?!api/|_next/|sign-in|sign-up|invite/|reset|dev/|.*\\.[a-z0-9]+$).+)"],
 };

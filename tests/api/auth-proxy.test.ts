@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { NextRequest } from "next/server";
+import { unstable_doesMiddlewareMatch } from "next/experimental/testing/server";
 import { freshDatabase } from "../support/db";
 import { signedInMember } from "../support/auth";
 import { proxy, config } from "@/proxy";
@@ -42,9 +43,13 @@ describe("proxy: the sign-in redirect for farm pages", () => {
     expect(res.headers.get("location")).toBeNull();
   });
 
-  it("covers every farm screen of the architecture", () => {
-    for (const p of ["today", "scan", "bags", "lots", "protocols", "stores", "plan", "trials", "team", "settings", "labels"]) {
-      expect(config.matcher).toContain(`/${p}/:path*`);
+  const runsOn = (url: string) => unstable_doesMiddlewareMatch({ config, url });
+  it("runs on every farm screen (deny by default), not on public pages, the API or assets", () => {
+    for (const p of ["/today", "/scan", "/bags", "/bags/new", "/bags/view?id=1", "/check", "/sowing", "/lots", "/protocols", "/stores", "/plan", "/trials", "/team", "/settings", "/labels"]) {
+      expect(runsOn(p), p).toBe(true);
+    }
+    for (const p of ["/", "/sign-in", "/sign-in?next=/team", "/sign-up", "/invite/abc_DEF-123", "/reset", "/reset/abc", "/dev/mailbox", "/api/me", "/api/sync/push", "/_next/static/chunks/x.js", "/sw.js", "/manifest.webmanifest", "/icons/icon-192.png"]) {
+      expect(runsOn(p), p).toBe(false);
     }
   });
 
