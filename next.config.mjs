@@ -2,6 +2,7 @@ import fs from "node:fs";
 import path from "node:path";
 import { randomUUID } from "node:crypto";
 import withSerwistInit from "@serwist/next";
+import { securityHeaders } from "./security-headers.mjs";
 
 /**
  * Every app screen's address, found from the app/ folder, for the service worker to precache
@@ -57,10 +58,14 @@ const nextConfig = {
   serverExternalPackages: ["knex", "better-sqlite3", "smtp-server", "nodemailer"],
   // `next dev` runs on Turbopack; production builds use webpack (`next build --webpack`) for the service worker.
   turbopack: {},
+  // The e2e harness builds with NEXT_SKIP_TYPECHECK=1: CI runs `tsc --noEmit` as its own step just before.
+  typescript: { ignoreBuildErrors: process.env.NEXT_SKIP_TYPECHECK === "1" },
+  // CSP, referrer policy, framing, sniffing and camera permission for every response (security-headers.mjs).
   async headers() {
     return [
+      { source: "/:path*", headers: securityHeaders({ dev: process.env.NODE_ENV !== "production" }) },
       // The worker must always be fetched fresh so a new build's pages replace the old ones.
-      { source: "/sw.js", headers: [{ key: "Cache-Control", value: "no-cache, no-store, must-revalidate" }, { key: "Service-Worker-Allowed", value: "/" }] },
+      { source: "/sw.js", headers: [{ key: "Cache-Control", value: "no-cache, no-store, must-revalidate" }] },
     ];
   },
 };

@@ -26,7 +26,7 @@ function withTimeout<T>(p: Promise<T>, ms: number): Promise<T> {
   });
 }
 
-const serwist = new Serwist({
+const serwist: Serwist = new Serwist({
   precacheEntries: manifest,
   skipWaiting: true,
   clientsClaim: true,
@@ -58,14 +58,14 @@ const serwist = new Serwist({
     // precached page (it reads the rest from the address), else the offline page.
     {
       matcher: ({ request, url, sameOrigin }) => sameOrigin && request.mode === "navigate" && !url.pathname.startsWith("/api/"),
-      handler: async ({ request, url }) => {
+      handler: async ({ request, url }): Promise<Response> => {
         try {
           return await withTimeout(fetch(request), 8000);
         } catch {
           const parts = url.pathname.split("/").filter(Boolean);
           const candidates = [url.pathname, `/${[...parts.slice(0, -1), SHELL_ID].join("/")}`];
           for (const candidate of candidates) {
-            const hit = await serwist.matchPrecache(candidate);
+            const hit: Response | undefined = await serwist.matchPrecache(candidate);
             if (hit) return hit;
           }
           return (await caches.match(request)) ?? (await serwist.matchPrecache("/offline")) ?? Response.error();

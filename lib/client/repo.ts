@@ -76,7 +76,7 @@ export const recordSowing = (input: New<SowingInput>) => runMutation("sowing.rec
 export const recordCount = (input: New<CountInput>) => runMutation("count.record", { ...input, id: input.id ?? newId() });
 
 // Trials
-export const createTrial = (input: New<TrialInput> & { arms: (Omit<TrialInput["arms"][number], "id"> & { id?: string })[] }) =>
+export const createTrial = (input: Omit<New<TrialInput>, "arms"> & { arms: (Omit<TrialInput["arms"][number], "id"> & { id?: string })[] }) =>
   runMutation("trial.create", { ...input, id: input.id ?? newId(), arms: input.arms.map((a) => ({ ...a, id: a.id ?? newId() })) });
 export const updateTrial = (id: string, patch: Partial<Omit<TrialInput, "id" | "arms">>) => runMutation("trial.update", { id, patch });
 
