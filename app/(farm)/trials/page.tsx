@@ -1,0 +1,8 @@
+import type { Metadata } from "next";
+import { TrialsScreen } from "@/components/trials/TrialsScreen";
+
+export const metadata: Metadata = { title: "Trials · Rimebook" };
+
+export default function TrialsPage() {
+  return <TrialsScreen />;
+}

@@ -1,0 +1,92 @@
+"use client";
+
+import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
+import type { ArmComparison, ArmResult, TrialTable } from "./trial-table";
+
+const pct = (x: number) => `${(100 * x).toFixed(0)} %`;
+const points = (x: number) => `${x >= 0 ? "+" : "−"}${Math.abs(100 * x).toFixed(1)}`;
+const formatP = (p: number) => (p < 0.001 ? "< 0.001" : p.toFixed(3));
+
+interface Row {
+  arm: ArmResult;
+  vsBest: ArmComparison | null;
+  isBest: boolean;
+}
+
+const col = createColumnHelper<Row>();
+const columns = [
+  col.display({
+    id: "arm",
+    header: "Arm",
+    cell: ({ row: { original: r } }) => (
+      <span className="font-semibold">
+        {r.isBest ? <span aria-label="best so far">★ </span> : null}
+        {r.arm.arm.label}
+      </span>
+    ),
+  }),
+  col.display({
+    id: "germ",
+    header: "Germinated",
+    cell: ({ row: { original: r } }) => (r.arm.sown ? `${r.arm.germinated}/${r.arm.sown} · ${pct(r.arm.germinated / r.arm.sown)}` : "not counted"),
+  }),
+  col.display({
+    id: "wilson",
+    header: "95 % interval (Wilson)",
+    cell: ({ row: { original: r } }) => (r.arm.interval ? `${pct(r.arm.interval.lower)}–${pct(r.arm.interval.upper)}` : "—"),
+  }),
+  col.display({
+    id: "diff",
+    header: "Best minus this, points (Newcombe 95 %)",
+    cell: ({ row: { original: r } }) => {
+      if (r.isBest) return "reference";
+      if (!r.vsBest) return "—";
+      const d = r.vsBest.verdict.difference;
+      return `${points(d.difference)} (${points(d.lower)} to ${points(d.upper)})`;
+    },
+  }),
+  col.display({
+    id: "fisher",
+    header: "Fisher's exact p (two-sided)",
+    cell: ({ row: { original: r } }) => (r.vsBest ? formatP(r.vsBest.verdict.fisher.pTwoSided) : "—"),
+  }),
+];
+
+/** Each arm with its Wilson interval; the best arm against every other: Newcombe interval and Fisher's exact p. */
+export function ComparisonTable({ table }: { table: TrialTable }) {
+  const data: Row[] = table.arms.map((arm) => ({
+    arm,
+    vsBest: table.comparisons.find((c) => c.armId === arm.arm.id) ?? null,
+    isBest: table.best?.arm.id === arm.arm.id && table.comparisons.length > 0,
+  }));
+  const t = useReactTable({ data, columns, getCoreRowModel: getCoreRowModel() });
+  return (
+    <div className="overflow-x-auto rounded-xl border border-rime-200">
+      <table className="min-w-[36rem] w-full text-left text-label">
+        <caption className="sr-only">Germination by arm, with intervals and the comparison against the best arm</caption>
+        <thead className="bg-rime-100">
+          {t.getHeaderGroups().map((g) => (
+            <tr key={g.id}>
+              {g.headers.map((h) => (
+                <th key={h.id} scope="col" className="px-2 py-2 align-bottom font-semibold">
+                  {flexRender(h.column.columnDef.header, h.getContext())}
+                </th>
+              ))}
+            </tr>
+          ))}
+        </thead>
+        <tbody>
+          {t.getRowModel().rows.map((r) => (
+            <tr key={r.id} className="border-t border-rime-100 bg-white">
+              {r.getVisibleCells().map((c) => (
+                <td key={c.id} className="px-2 py-2 align-top">
+                  {flexRender(c.column.columnDef.cell, c.getContext())}
+                </td>
+              ))}
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}
