@@ -8,25 +8,11 @@ import type { TemperatureUnit } from "@/lib/domain";
 import { Button } from "@/components/ui/Button";
 import { Field, Select } from "@/components/ui/Field";
 import { getSyncEngine } from "@/lib/client/sync";
+import { useOnline } from "@/lib/client/hooks";
 import { ImportRowReport } from "./ImportRowReport";
 
 type Order = "auto" | "dmy" | "mdy";
 type UnitChoice = "file" | TemperatureUnit;
-
-export function useOnline(): boolean {
-  const [online, setOnline] = useState(true);
-  useEffect(() => {
-    const update = () => setOnline(navigator.onLine);
-    update();
-    window.addEventListener("online", update);
-    window.addEventListener("offline", update);
-    return () => {
-      window.removeEventListener("online", update);
-      window.removeEventListener("offline", update);
-    };
-  }, []);
-  return online;
-}
 
 /** What the server answered, in the shape both its success and its 422 carry. */
 interface ServerReport {
