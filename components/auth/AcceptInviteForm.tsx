@@ -31,9 +31,10 @@ export function AcceptInviteForm({ token, email, existingAccount }: { token: str
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-4" aria-label="Accept the invite">
       <input type="hidden" {...register("token")} />
-      <Field label="E-mail" htmlFor="email">
-        <Input id="email" type="email" value={email} readOnly aria-readonly className="bg-rime-100" />
-      </Field>
+      <div className="space-y-1">
+        <p className="text-label font-semibold text-ink">E-mail</p>
+        <p className="break-all rounded-xl bg-rime-100 px-3 py-2 text-ink">{email}</p>
+      </div>
       {existingAccount ? null : (
         <Field label="Your name" htmlFor="name" error={e.name?.message} hint="As your team knows you.">
           <Input id="name" autoComplete="name" {...invalidProps("name", e.name?.message)} {...register("name")} />

@@ -79,14 +79,14 @@ export function TeamPanel() {
       {!team && !loadError ? <p className="text-ink-soft">Loading the team…</p> : null}
 
       {team ? (
-        <Card className="space-y-1 p-0">
-          <h2 className="px-4 pt-4 text-label font-semibold uppercase tracking-wide text-glacier-600">Members ({team.members.length})</h2>
+        <Card className="space-y-1">
+          <h2 className="text-label font-semibold uppercase tracking-wide text-glacier-600">Members ({team.members.length})</h2>
           <ul className="divide-y divide-rime-200">
             {team.members.map((m) => {
               const lastOwner = m.role === "owner" && owners <= 1;
               const you = m.userId === team.you.userId;
               return (
-                <li key={m.membershipId} className="space-y-2 px-4 py-3">
+                <li key={m.membershipId} className="space-y-2 py-3">
                   <div className="flex items-start justify-between gap-3">
                     <div className="min-w-0">
                       <p className="font-semibold text-ink">
@@ -153,12 +153,12 @@ export function TeamPanel() {
             </ul>
           </Card>
 
-          <Card className="space-y-1 p-0">
-            <h2 className="px-4 pt-4 text-label font-semibold uppercase tracking-wide text-glacier-600">Pending invites ({team.invites.length})</h2>
-            {team.invites.length === 0 ? <p className="px-4 pb-4 text-label text-ink-soft">No invites waiting.</p> : null}
+          <Card className="space-y-1">
+            <h2 className="text-label font-semibold uppercase tracking-wide text-glacier-600">Pending invites ({team.invites.length})</h2>
+            {team.invites.length === 0 ? <p className="text-label text-ink-soft">No invites waiting.</p> : null}
             <ul className="divide-y divide-rime-200">
               {team.invites.map((i) => (
-                <li key={i.id} className="space-y-2 px-4 py-3">
+                <li key={i.id} className="space-y-2 py-3">
                   <div>
                     <p className="truncate font-semibold text-ink">{i.email}</p>
                     <p className="text-label text-ink-soft">

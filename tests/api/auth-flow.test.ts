@@ -241,6 +241,20 @@ describe("invites over real SMTP to the local fake", () => {
     expect((await switchFarm(post("/api/me/farm", { farmId: stranger.farmId }, { cookie: cookieFrom(switched) }), noCtx)).status).toBe(404);
   });
 
+  it("rate-limits password guesses through an invite link for an existing account", async () => {
+    const target = await signedInMember(ctx.db, { role: "owner", farmName: "Target Farm" });
+    await invite(post("/api/invites", { email: target.email, role: "viewer" }, { cookie: owner.cookie }), noCtx);
+    const token = mailTo(target.email)[0].links[0].split("/invite/")[1];
+    for (let i = 0; i < 5; i++) {
+      const r = await acceptInviteRoute(post("/api/invites/accept", { token, password: `guess number ${i}` }, { ip: `192.0.2.${50 + i}` }), noCtx);
+      expect(r.status).toBe(401);
+    }
+    const locked = await acceptInviteRoute(post("/api/invites/accept", { token, password: TEST_PASSWORD }, { ip: "192.0.2.99" }), noCtx);
+    expect(locked.status).toBe(429);
+    // Sign-in to that account is locked as well: the guesses counted against the account.
+    expect((await signIn(post("/api/auth/sign-in", { email: target.email, password: TEST_PASSWORD }, { ip: "192.0.2.98" }), noCtx)).status).toBe(429);
+  });
+
   it("refuses to invite someone already on the team (409)", async () => {
     const res = await invite(post("/api/invites", { email: owner.email, role: "viewer" }, { cookie: owner.cookie }), noCtx);
     expect(res.status).toBe(409);

@@ -1,10 +1,12 @@
 import { NextResponse } from "next/server";
+import { z } from "zod";
+import { AppError } from "@/lib/errors";
 import { InviteAcceptInput, LinkToken } from "@/lib/schemas/account";
 import { assertSameOrigin, signedInResponse } from "@/lib/server/auth";
 import { getDb } from "@/lib/server/db";
 import { readJson, readQuery, route } from "@/lib/server/http";
+import { assertSignInAllowed, clientAddress, recordSignInAttempt } from "@/lib/server/rate-limit";
 import { acceptInvite, describeInvite } from "@/lib/server/team";
-import { z } from "zod";
 
 export const dynamic = "force-dynamic";
 
@@ -18,6 +20,18 @@ export const GET = route(async (req) => {
 export const POST = route(async (req) => {
   assertSameOrigin(req);
   const input = await readJson(req, InviteAcceptInput);
-  const { userId, farmId, created } = await getDb().transaction((trx) => acceptInvite(trx, input));
-  return signedInResponse(req, { userId, farmId }, created ? 201 : 200);
+  const db = getDb();
+  const invite = await describeInvite(db, input.token);
+  // An existing account's password is checked here too, so it gets the same rate limit as sign-in.
+  const keys = { email: invite.email, ip: clientAddress(req) };
+  if (invite.existingAccount) await assertSignInAllowed(db, keys);
+  let joined: Awaited<ReturnType<typeof acceptInvite>>;
+  try {
+    joined = await db.transaction((trx) => acceptInvite(trx, input));
+  } catch (err) {
+    if (invite.existingAccount && err instanceof AppError && err.code === "unauthenticated") await recordSignInAttempt(db, keys, false);
+    throw err;
+  }
+  if (invite.existingAccount) await recordSignInAttempt(db, keys, true);
+  return signedInResponse(req, { userId: joined.userId, farmId: joined.farmId }, joined.created ? 201 : 200);
 });
