@@ -26,7 +26,7 @@ import { formatShortDay } from "@/components/bags/format-day";
 import { cadenceFor } from "@/components/today/round-input";
 import { allGoodDraft, planCheckSave, previewCheck, toggleAction, type CheckDraft, type CheckSavePlan } from "./check-draft";
 import { compressPhoto } from "./compress-photo";
-import { describeSheet } from "./sheet-view";
+import { describeSheet, formatPullWindow } from "./sheet-view";
 
 // The check sheet: one tap for "all good", or the findings, actions, note, temperature and a photo.
 // Saved on the phone through the repositories (outbox), so it works with no signal.
@@ -184,7 +184,7 @@ export function CheckSheet() {
           </dd>
           <dt className="text-ink-soft">Pull window</dt>
           <dd className="font-semibold">
-            {row.window ? `${formatShortDay(row.window.opensOn)} – ${row.window.closesOn ? formatShortDay(row.window.closesOn) : "when roots show"}` : "No window (no protocol)"}
+            {formatPullWindow(row.window, formatShortDay)}
           </dd>
           {lotText ? (
             <>
@@ -209,6 +209,16 @@ export function CheckSheet() {
           </p>
         ) : null}
       </Card>
+
+      {row.state === "pulled" || row.state === "sown" || row.state === "discarded" ? (
+        <p role="note" className="rounded-card bg-rime-100 p-3 text-label">
+          This bag is {vocabularyLabels.bagState[row.state].toLowerCase()}: no more checks are due. A check saved here is still kept in its record.
+        </p>
+      ) : row.state === "planned" ? (
+        <p role="note" className="rounded-card bg-rime-100 p-3 text-label">
+          This bag has not started its cold yet: checks begin once it has a start date.
+        </p>
+      ) : null}
 
       {!mayRecord ? (
         <p role="note" className="rounded-card bg-rime-100 p-3 text-label">

@@ -73,7 +73,7 @@ export function previewCheck(
     next,
     nextText,
     showMouldCaution: draft.mould !== "clean",
-    suggestPull: draft.sprouts !== "none" && !ends,
+    suggestPull: draft.sprouts !== "none" && !ends && draft.mould !== "spreading",
   };
 }
 

@@ -1,6 +1,7 @@
 import { buildBagRows, type BagRow } from "@/components/bags/bag-rows";
 import { findNextMoveOn } from "@/components/today/round-input";
 import type { IsoDay } from "@/lib/domain/dates";
+import type { PullWindow } from "@/lib/domain/schedule";
 import type { BagForSheet } from "@/lib/client/fridge-reads";
 import { pickBagCautions, type BagCaution } from "./bag-cautions";
 import type { BagForCheck } from "./check-draft";
@@ -41,4 +42,12 @@ export function describeSheet(data: BagForSheet, today: IsoDay): SheetView | nul
     }),
     lotText: [lot?.source, lot?.year].filter((v) => v !== null && v !== undefined && v !== "").join(", "),
   };
+}
+
+/** "10 Dec – 24 Dec", "22 Feb" when the sources agree on one day, "from 3 Jan, when roots show" with no latest date. */
+export function formatPullWindow(w: PullWindow | null, formatDay: (d: IsoDay) => string): string {
+  if (!w) return "No window (no protocol)";
+  if (w.closesOn === null) return `From ${formatDay(w.opensOn)}, when roots show`;
+  if (w.closesOn === w.opensOn) return formatDay(w.opensOn);
+  return `${formatDay(w.opensOn)} – ${formatDay(w.closesOn)}`;
 }

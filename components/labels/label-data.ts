@@ -2,6 +2,7 @@ import QRCode from "qrcode";
 import type { BagRow } from "@/components/bags/bag-rows";
 import { formatLongDay, formatShortDay } from "@/components/bags/format-day";
 import { pickBagCautions } from "@/components/check/bag-cautions";
+import { formatPullWindow } from "@/components/check/sheet-view";
 import type { FarmRows } from "@/lib/client/fridge-reads";
 import { buildLabelPayload } from "@/lib/domain/label-payload";
 import type { BagState } from "@/lib/schemas/vocabulary";
@@ -56,7 +57,7 @@ export function buildLabels(rows: readonly BagRow[], farm: Pick<FarmRows, "lots"
       commonName: row.commonName,
       lotText: [lot?.source, lot?.year].filter((v) => v !== null && v !== undefined && v !== "").join(" ") || "",
       startText: row.startedOn ? `In ${formatLongDay(row.startedOn)}` : row.plannedStartOn ? `Starts ${formatLongDay(row.plannedStartOn)}` : "Start not set",
-      windowText: w ? `Pull ${formatShortDay(w.opensOn)} – ${w.closesOn ? formatShortDay(w.closesOn) : "when roots show"}` : "Pull when roots show",
+      windowText: w ? `Pull ${formatPullWindow(w, formatShortDay).replace(/^From/, "from")}` : "Pull when roots show",
       whereText: [row.storeName, row.box].filter(Boolean).join(" · "),
       toxic: cautions.some((c) => c.key === "toxic"),
       treated: cautions.some((c) => c.key === "treated"),

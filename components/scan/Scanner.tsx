@@ -7,7 +7,7 @@ import { useLiveQuery } from "dexie-react-hooks";
 import type { IScannerControls } from "@zxing/browser";
 import { getLocalDb } from "@/lib/client/db";
 import { loadFarmFetched } from "@/lib/client/fridge-reads";
-import { formatBagCode } from "@/lib/domain/bag-codes";
+import { formatBagCode, normalizeCrockford } from "@/lib/domain/bag-codes";
 import { Button } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
 import { Field, Input } from "@/components/ui/Field";
@@ -37,6 +37,8 @@ export function Scanner() {
   codesRef.current = codes;
   const lastTextRef = useRef<string>("");
   const leavingRef = useRef(false);
+  // The bag just saved is usually still in front of the camera: it is not reopened until it has left the view.
+  const justSavedRef = useRef<{ code: string | null; seenAt: number }>({ code: saved ? normalizeCrockford(saved) : null, seenAt: Date.now() });
 
   const openBag = useCallback(
     (bagId: string) => {
@@ -53,6 +55,13 @@ export function Scanner() {
       const farm = codesRef.current;
       if (!farm || leavingRef.current) return; // the phone store is still opening; the next frame will do
       const result = lookUpScannedText(text, farm);
+      const justSaved = justSavedRef.current;
+      if (result.kind === "found" && result.code === justSaved.code) {
+        justSaved.seenAt = Date.now();
+        if (lastTextRef.current !== text) setNotice(`${formatBagCode(result.code)} was just saved. Point the camera at the next label.`);
+        lastTextRef.current = text;
+        return;
+      }
       if (result.kind === "found") return openBag(result.bagId);
       if (text === lastTextRef.current) return;
       lastTextRef.current = text;
@@ -77,7 +86,13 @@ export function Scanner() {
           { audio: false, video: { facingMode: { ideal: "environment" } } },
           videoRef.current,
           (result) => {
-            if (result) onScanned(result.getText());
+            // Never throw back into zxing's loop: an exception there stops the scanning for good.
+            try {
+              if (result) onScanned(result.getText());
+              else if (justSavedRef.current.code && Date.now() - justSavedRef.current.seenAt > 1500) justSavedRef.current.code = null;
+            } catch (e) {
+              console.error(e);
+            }
           },
         );
         if (cancelled) {

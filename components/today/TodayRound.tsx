@@ -3,7 +3,7 @@
 import Link from "next/link";
 import { useLiveQuery } from "dexie-react-hooks";
 import { getLocalDb } from "@/lib/client/db";
-import { loadFarmRows, loadLastChecks } from "@/lib/client/fridge-reads";
+import { loadFarmFetched, loadFarmRows, loadLastChecks } from "@/lib/client/fridge-reads";
 import { loadIdentity } from "@/lib/client/identity";
 import { formatIsoDay } from "@/lib/domain/dates";
 import { formatBagCode } from "@/lib/domain/bag-codes";
@@ -12,21 +12,20 @@ import { buttonClass } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
 import { StateBadge } from "@/components/ui/StateBadge";
 import { formatShortDay } from "@/components/bags/format-day";
-import { buildRoundFromRows, cadenceFor, countStoreBags, summarizeRound } from "./round-input";
+import { buildRoundFromRows, cadenceFor, chipKindOf, countStoreBags, summarizeRound, urgentChipKinds } from "./round-input";
 import { ScanGlyph } from "./ScanGlyph";
 
 // Today: the bags due for a check, worked out on the phone from the phone store (works with no signal).
 
 async function loadRound(today: string) {
   const db = getLocalDb();
-  const [rows, identity] = await Promise.all([loadFarmRows(db), loadIdentity(db)]);
+  const [rows, identity, fetched] = await Promise.all([loadFarmRows(db), loadIdentity(db), loadFarmFetched(db)]);
   const live = rows.bags.filter((b) => !b.deleted_at && b.start_date && !b.pulled_on && !b.sown_on && !b.discarded_on);
   const lastChecks = await loadLastChecks(db, live.map((b) => b.id));
   const round = buildRoundFromRows(rows, lastChecks, today, cadenceFor(identity?.farm.weekly_check_days));
-  return { round, identity, bagCount: rows.bags.length };
+  return { round, identity, fetched, bagCount: rows.bags.length };
 }
 
-const urgentReasons = new Set(["discard_now", "pull_now", "overdue", "window_opens"]);
 const longDay = new Intl.DateTimeFormat("en-GB", { weekday: "long", day: "numeric", month: "long" });
 
 export function TodayRound() {
@@ -38,7 +37,7 @@ export function TodayRound() {
       <header>
         <p className="text-label font-semibold uppercase tracking-wide text-glacier-600">{longDay.format(new Date())}</p>
         <h1 className="text-display font-bold leading-tight text-glacier-800">Today&apos;s round</h1>
-        {data ? (
+        {data && (data.fetched || data.bagCount > 0) ? (
           <p className="text-body text-ink-soft" data-testid="round-count">
             {data.round.counts.due === 0
               ? "No bags due for a check."
@@ -54,12 +53,10 @@ export function TodayRound() {
 
       {data === undefined ? <p className="text-ink-soft">Opening the round…</p> : null}
 
-      {data && data.bagCount === 0 ? (
+      {data && data.fetched && data.bagCount === 0 ? (
         <Card>
-          <p className="font-semibold">No bags on this phone yet.</p>
-          <p className="text-label text-ink-soft">
-            Once this phone has had signal after sign-in, your farm&apos;s bags appear here and stay available with no signal.
-          </p>
+          <p className="font-semibold">No bags on this farm yet.</p>
+          <p className="text-label text-ink-soft">Bags you set up appear here on the days they are due for a check.</p>
         </Card>
       ) : null}
 
@@ -67,8 +64,8 @@ export function TodayRound() {
         <ul className="flex flex-wrap gap-2" aria-label="Due today by reason">
           {summarizeRound(data.round).map((s) => (
             <li
-              key={s.reason}
-              className={`rounded-full px-3 py-1 text-label font-semibold ${urgentReasons.has(s.reason) ? "bg-ember-100 text-ember-700" : "bg-rime-100 text-glacier-800"}`}
+              key={s.kind}
+              className={`rounded-full px-3 py-1 text-label font-semibold ${s.urgent ? "bg-ember-100 text-ember-700" : "bg-rime-100 text-glacier-800"}`}
             >
               {s.count} · {s.label}
             </li>
@@ -102,7 +99,7 @@ export function TodayRound() {
 }
 
 function RoundRow({ item }: { item: RoundItem }) {
-  const urgent = urgentReasons.has(item.next.reason) || item.priority === 0;
+  const urgent = urgentChipKinds.has(chipKindOf(item));
   return (
     <li>
       <Link

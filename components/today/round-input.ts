@@ -78,22 +78,35 @@ export function buildRoundFromRows(
   return buildTodaysRound(roundBags, today, cadence);
 }
 
-/** The summary chips at the top of Today, most urgent first; reasons with no bags are left out. */
-export const reasonLabels: Record<NextCheckReason, string> = {
+/** The summary chips at the top of Today, most urgent first. A follow-up after mould gets its own chip. */
+export type RoundChipKind = NextCheckReason | "mould_follow_up";
+
+export const roundChipLabels: Record<RoundChipKind, string> = {
   discard_now: "Mould spreading",
+  mould_follow_up: "Mould spots",
   pull_now: "Roots showing",
   overdue: "Past latest pull",
   window_opens: "Window opens",
-  follow_up: "Follow-up",
+  follow_up: "Moisture follow-up",
   move_to_next_phase: "Move to cold",
   window_daily: "Window open",
   weekly: "Routine",
 };
 
-export function summarizeRound(round: TodaysRound): { reason: NextCheckReason; label: string; count: number }[] {
-  return (Object.keys(reasonLabels) as NextCheckReason[])
-    .filter((r) => (round.counts.byReason[r] ?? 0) > 0)
-    .map((reason) => ({ reason, label: reasonLabels[reason], count: round.counts.byReason[reason]! }));
+/** Chips that ask for action before the routine checks. */
+export const urgentChipKinds: ReadonlySet<RoundChipKind> = new Set(["discard_now", "mould_follow_up", "pull_now", "overdue", "window_opens"]);
+
+export function chipKindOf(item: TodaysRound["items"][number]): RoundChipKind {
+  const mould = item.bag.lastCheck?.mould;
+  return item.next.reason === "follow_up" && mould && mould !== "clean" ? "mould_follow_up" : item.next.reason;
+}
+
+export function summarizeRound(round: TodaysRound): { kind: RoundChipKind; label: string; count: number; urgent: boolean }[] {
+  const counts = new Map<RoundChipKind, number>();
+  for (const item of round.items) counts.set(chipKindOf(item), (counts.get(chipKindOf(item)) ?? 0) + 1);
+  return (Object.keys(roundChipLabels) as RoundChipKind[])
+    .filter((k) => counts.has(k))
+    .map((kind) => ({ kind, label: roundChipLabels[kind], count: counts.get(kind)!, urgent: urgentChipKinds.has(kind) }));
 }
 
 /** Bags in a store group, for the group's count. */

@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { allGoodDraft, planCheckSave, previewCheck, toggleAction, type BagForCheck, type CheckDraft } from "@/components/check/check-draft";
 import { computePullWindow } from "@/lib/domain/schedule";
+import { formatPullWindow } from "@/components/check/sheet-view";
 import { starterProtocols } from "@/lib/domain/starter-protocols";
 import { mutationTable } from "@/lib/schemas/mutations";
 
@@ -130,5 +131,16 @@ describe("note", () => {
     expect(r.ok && r.plan.check.note).toBe("towel");
     expect(planCheckSave(draft({ note: "   " }), ctx())).toMatchObject({ ok: true, plan: { check: { note: null } } });
     expect(planCheckSave(draft({ note: "x".repeat(2001) }), ctx())).toMatchObject({ ok: false, fields: { note: "Keep it under 2000 characters." } });
+  });
+});
+
+describe("pull window words", () => {
+  it.each([
+    [{ opensOn: "2026-01-15", closesOn: "2026-01-29" }, "2026-01-15 – 2026-01-29"],
+    [{ opensOn: "2026-02-22", closesOn: "2026-02-22" }, "2026-02-22"],
+    [{ opensOn: "2026-01-03", closesOn: null }, "From 2026-01-03, when roots show"],
+    [null, "No window (no protocol)"],
+  ])("%j reads %j", (w, text) => {
+    expect(formatPullWindow(w && { ...w, plannedPullOn: w.opensOn, sourcesDisagree: false }, (d) => d)).toBe(text);
   });
 });

@@ -73,12 +73,12 @@ describe("today's round from the phone store", () => {
     expect(tomorrow.items.find((i) => i.bag.code === "ELDER")?.next).toMatchObject({ reason: "move_to_next_phase", on: "2026-01-21" });
   });
 
-  it("summarizes counts by reason for the chips", () => {
+  it("summarizes counts for the chips, a follow-up after mould apart and urgent", () => {
     expect(summarizeRound(round)).toEqual([
-      { reason: "overdue", label: "Past latest pull", count: 1 },
-      { reason: "follow_up", label: "Follow-up", count: 1 },
-      { reason: "window_daily", label: "Window open", count: 1 },
-      { reason: "weekly", label: "Routine", count: 1 },
+      { kind: "mould_follow_up", label: "Mould spots", count: 1, urgent: true },
+      { kind: "overdue", label: "Past latest pull", count: 1, urgent: true },
+      { kind: "window_daily", label: "Window open", count: 1, urgent: false },
+      { kind: "weekly", label: "Routine", count: 1, urgent: false },
     ]);
   });
 
