@@ -1,6 +1,6 @@
 import fs from "node:fs";
 import path from "node:path";
-import { randomUUID } from "node:crypto";
+import { createHash, randomUUID } from "node:crypto";
 import withSerwistInit from "@serwist/next";
 import { securityHeaders } from "./security-headers.mjs";
 
@@ -31,9 +31,18 @@ function appRoutes(dir = "app", segments = []) {
   return routes;
 }
 
-const routes = ["/", ...new Set(appRoutes())];
+const routes = ["/", "/manifest.webmanifest", ...new Set(appRoutes())];
 // One revision per build: a new deployment replaces every precached page.
 const revision = process.env.RIMEBOOK_BUILD_ID || randomUUID();
+
+/** Rimebook's icons in public/icons, revisioned by content (listing routes replaces Serwist's own public scan). */
+function publicAssets(dir = "public/icons") {
+  if (!fs.existsSync(dir)) return [];
+  return fs
+    .readdirSync(dir)
+    .filter((f) => /\.(png|svg|ico|webp)$/.test(f))
+    .map((f) => ({ url: `/${path.posix.join("icons", f)}`, revision: createHash("sha256").update(fs.readFileSync(path.join(dir, f))).digest("hex").slice(0, 16) }));
+}
 
 const withSerwist = withSerwistInit({
   swSrc: "sw/index.ts",
@@ -43,9 +52,8 @@ const withSerwist = withSerwistInit({
   // Reloading on reconnect would throw away a half-filled check; the sync loop handles reconnects.
   reloadOnOnline: false,
   cacheOnNavigation: false,
-  additionalPrecacheEntries: routes.map((url) => ({ url, revision })),
-  // Icons, fonts and the manifest's images; generated worker files are not precached.
-  globPublicPatterns: ["icons/**/*", "*.svg", "*.png", "*.ico", "*.woff2"],
+  // Fonts, scripts and styles come from the webpack build; routes and icons are listed here.
+  additionalPrecacheEntries: [...routes.map((url) => ({ url, revision })), ...publicAssets()],
 });
 
 /** @type {import('next').NextConfig} */
