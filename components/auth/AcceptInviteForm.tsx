@@ -1,13 +1,11 @@
 "use client";
 
-import Link from "next/link";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { InviteAcceptInput, NewMemberAcceptInput, PASSWORD_MIN } from "@/lib/schemas/account";
-import { Button } from "@/components/ui/Button";
 import { Field, Input } from "@/components/ui/Field";
-import { FormMessage, PasswordInput, applyServerError, invalidProps, sendJson } from "./form-kit";
+import { FormMessage, PasswordInput, SubmitButton, TextLink, applyServerError, invalidProps, sendJson } from "./form-kit";
 
 /** New people choose a name and password; someone with an account enters their existing password. */
 export function AcceptInviteForm({ token, email, existingAccount }: { token: string; email: string; existingAccount: boolean }) {
@@ -49,13 +47,11 @@ export function AcceptInviteForm({ token, email, existingAccount }: { token: str
         <PasswordInput id="password" autoComplete={existingAccount ? "current-password" : "new-password"} {...invalidProps("password", e.password?.message)} {...register("password")} />
       </Field>
       <FormMessage message={message} />
-      <Button type="submit" size="lg" className="w-full" disabled={formState.isSubmitting}>
-        {formState.isSubmitting ? "Joining…" : "Join the farm"}
-      </Button>
+      <SubmitButton busy={formState.isSubmitting} busyLabel="Joining…">
+        Join the farm
+      </SubmitButton>
       {existingAccount ? (
-        <Link href="/reset" className="flex min-h-tap items-center text-label font-semibold text-glacier-700 underline-offset-4 hover:underline">
-          Forgot that password?
-        </Link>
+        <TextLink href="/reset">Forgot that password?</TextLink>
       ) : null}
     </form>
   );

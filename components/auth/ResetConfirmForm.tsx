@@ -1,13 +1,11 @@
 "use client";
 
-import Link from "next/link";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { PASSWORD_MIN, ResetConfirmInput } from "@/lib/schemas/account";
-import { Button } from "@/components/ui/Button";
 import { Field } from "@/components/ui/Field";
-import { FormMessage, PasswordInput, applyServerError, invalidProps, sendJson } from "./form-kit";
+import { FormMessage, PasswordInput, SubmitButton, TextLink, applyServerError, invalidProps, sendJson } from "./form-kit";
 
 export function ResetConfirmForm({ token }: { token: string }) {
   const { register, handleSubmit, formState, setError } = useForm({ resolver: zodResolver(ResetConfirmInput), defaultValues: { token, password: "" } });
@@ -34,13 +32,11 @@ export function ResetConfirmForm({ token }: { token: string }) {
       </Field>
       <FormMessage message={message} />
       {linkDead ? (
-        <Link href="/reset" className="flex min-h-tap items-center text-label font-semibold text-glacier-700 underline-offset-4 hover:underline">
-          Ask for a new link
-        </Link>
+        <TextLink href="/reset">Ask for a new link</TextLink>
       ) : null}
-      <Button type="submit" size="lg" className="w-full" disabled={formState.isSubmitting}>
-        {formState.isSubmitting ? "Saving…" : "Save the new password"}
-      </Button>
+      <SubmitButton busy={formState.isSubmitting} busyLabel="Saving…">
+        Save the new password
+      </SubmitButton>
     </form>
   );
 }

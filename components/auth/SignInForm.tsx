@@ -1,13 +1,11 @@
 "use client";
 
-import Link from "next/link";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { SignInInput } from "@/lib/schemas/account";
-import { Button } from "@/components/ui/Button";
-import { Field, Input } from "@/components/ui/Field";
-import { FormMessage, PasswordInput, applyServerError, invalidProps, sendJson } from "./form-kit";
+import { Field } from "@/components/ui/Field";
+import { EmailInput, FormMessage, PasswordInput, SubmitButton, TextLink, applyServerError, invalidProps, sendJson } from "./form-kit";
 import { safeNext } from "./next-path";
 
 export function SignInForm({ next }: { next?: string }) {
@@ -30,22 +28,18 @@ export function SignInForm({ next }: { next?: string }) {
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-4" aria-label="Sign in">
       <Field label="E-mail" htmlFor="email" error={e.email?.message}>
-        <Input id="email" type="email" autoComplete="email" inputMode="email" autoCapitalize="none" {...invalidProps("email", e.email?.message)} {...register("email")} />
+        <EmailInput id="email" {...invalidProps("email", e.email?.message)} {...register("email")} />
       </Field>
       <Field label="Password" htmlFor="password" error={e.password?.message}>
         <PasswordInput id="password" autoComplete="current-password" {...invalidProps("password", e.password?.message)} {...register("password")} />
       </Field>
       <FormMessage message={message} />
-      <Button type="submit" size="lg" className="w-full" disabled={formState.isSubmitting}>
-        {formState.isSubmitting ? "Signing in…" : "Sign in"}
-      </Button>
+      <SubmitButton busy={formState.isSubmitting} busyLabel="Signing in…">
+        Sign in
+      </SubmitButton>
       <div className="flex flex-col gap-1 text-label">
-        <Link href="/reset" className="flex min-h-tap items-center font-semibold text-glacier-700 underline-offset-4 hover:underline">
-          Forgot your password?
-        </Link>
-        <Link href="/sign-up" className="flex min-h-tap items-center font-semibold text-glacier-700 underline-offset-4 hover:underline">
-          New here? Start a farm account
-        </Link>
+        <TextLink href="/reset">Forgot your password?</TextLink>
+        <TextLink href="/sign-up">New here? Start a farm account</TextLink>
       </div>
     </form>
   );

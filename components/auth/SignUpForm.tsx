@@ -1,13 +1,11 @@
 "use client";
 
-import Link from "next/link";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { PASSWORD_MIN, SignUpInput } from "@/lib/schemas/account";
-import { Button } from "@/components/ui/Button";
 import { Field, Input } from "@/components/ui/Field";
-import { FormMessage, PasswordInput, applyServerError, invalidProps, sendJson } from "./form-kit";
+import { EmailInput, FormMessage, PasswordInput, SubmitButton, TextLink, applyServerError, invalidProps, sendJson } from "./form-kit";
 
 const fields = ["farmName", "name", "email", "password"] as const;
 
@@ -38,21 +36,19 @@ export function SignUpForm() {
         <Input id="name" autoComplete="name" {...invalidProps("name", e.name?.message)} {...register("name")} />
       </Field>
       <Field label="E-mail" htmlFor="email" error={e.email?.message}>
-        <Input id="email" type="email" autoComplete="email" inputMode="email" autoCapitalize="none" {...invalidProps("email", e.email?.message)} {...register("email")} />
+        <EmailInput id="email" {...invalidProps("email", e.email?.message)} {...register("email")} />
       </Field>
       <Field label="Password" htmlFor="password" error={e.password?.message} hint={`At least ${PASSWORD_MIN} characters. A short sentence works well.`}>
         <PasswordInput id="password" autoComplete="new-password" {...invalidProps("password", e.password?.message)} {...register("password")} />
       </Field>
       <FormMessage message={message} />
-      <Button type="submit" size="lg" className="w-full" disabled={formState.isSubmitting}>
-        {formState.isSubmitting ? "Setting up your farm…" : "Start the farm account"}
-      </Button>
+      <SubmitButton busy={formState.isSubmitting} busyLabel="Setting up your farm…">
+        Start the farm account
+      </SubmitButton>
       <p className="text-label text-ink-soft">
         You will be the farm&apos;s Owner and can invite your team. A starter library of protocols with their published sources comes with it.
       </p>
-      <Link href="/sign-in" className="flex min-h-tap items-center text-label font-semibold text-glacier-700 underline-offset-4 hover:underline">
-        Already have an account? Sign in
-      </Link>
+      <TextLink href="/sign-in">Already have an account? Sign in</TextLink>
     </form>
   );
 }

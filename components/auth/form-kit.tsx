@@ -1,7 +1,9 @@
 "use client";
 
+import Link from "next/link";
 import { useState } from "react";
 import type { FieldValues, Path, UseFormSetError } from "react-hook-form";
+import { Button } from "@/components/ui/Button";
 import { Input } from "@/components/ui/Field";
 
 // Small pieces every account form shares: send JSON to our API, put the server's field errors
@@ -72,4 +74,27 @@ export function PasswordInput({ ref, ...rest }: React.ComponentProps<"input">) {
 /** aria attributes tying a control to its error message. */
 export function invalidProps(id: string, error: string | undefined) {
   return error ? { "aria-invalid": true, "aria-describedby": `${id}-error` } : { "aria-invalid": false };
+}
+
+/** An e-mail box with the phone keyboard and autofill set up. */
+export function EmailInput({ ref, ...rest }: React.ComponentProps<"input">) {
+  return <Input ref={ref} type="email" autoComplete="email" inputMode="email" autoCapitalize="none" spellCheck={false} {...rest} />;
+}
+
+/** A quiet text link that is still a full-size touch target. */
+export function TextLink({ href, children }: { href: string; children: React.ReactNode }) {
+  return (
+    <Link href={href} className="flex min-h-tap items-center text-label font-semibold text-glacier-700 underline-offset-4 hover:underline">
+      {children}
+    </Link>
+  );
+}
+
+/** The form's main button: full width, says what is happening while it works. */
+export function SubmitButton({ busy, busyLabel, children }: { busy: boolean; busyLabel: string; children: React.ReactNode }) {
+  return (
+    <Button type="submit" size="lg" className="w-full" disabled={busy}>
+      {busy ? busyLabel : children}
+    </Button>
+  );
 }

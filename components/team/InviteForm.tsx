@@ -6,8 +6,8 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { InviteInput } from "@/lib/schemas/account";
 import { roles, vocabularyLabels } from "@/lib/schemas/vocabulary";
 import { Button } from "@/components/ui/Button";
-import { Field, Input, Select } from "@/components/ui/Field";
-import { FormMessage, applyServerError, invalidProps, sendJson } from "@/components/auth/form-kit";
+import { Field, Select } from "@/components/ui/Field";
+import { EmailInput, FormMessage, applyServerError, invalidProps, sendJson } from "@/components/auth/form-kit";
 import { roleHints } from "./role-hints";
 
 export function InviteForm({ onInvited }: { onInvited: () => void }) {
@@ -37,7 +37,7 @@ export function InviteForm({ onInvited }: { onInvited: () => void }) {
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-3" aria-label="Invite someone">
       <Field label="E-mail" htmlFor="invite-email" error={e.email?.message}>
-        <Input id="invite-email" type="email" inputMode="email" autoCapitalize="none" autoComplete="off" {...invalidProps("invite-email", e.email?.message)} {...register("email")} />
+        <EmailInput id="invite-email" autoComplete="off" {...invalidProps("invite-email", e.email?.message)} {...register("email")} />
       </Field>
       <Field label="Role" htmlFor="invite-role" error={e.role?.message}>
         <Select id="invite-role" {...register("role")}>

@@ -1,7 +1,6 @@
 import type { Metadata } from "next";
-import Link from "next/link";
 import { AcceptInviteForm } from "@/components/auth/AcceptInviteForm";
-import { FormMessage } from "@/components/auth/form-kit";
+import { FormMessage, TextLink } from "@/components/auth/form-kit";
 import { AppError } from "@/lib/errors";
 import { vocabularyLabels } from "@/lib/schemas/vocabulary";
 import { getDb } from "@/lib/server/db";
@@ -37,9 +36,7 @@ export default async function InvitePage({ params }: { params: Promise<{ token: 
       <section className="space-y-5">
         <h1 className="text-display font-bold leading-tight text-ink">This invite cannot be used</h1>
         <FormMessage message={problem} />
-        <Link href="/sign-in" className="flex min-h-tap items-center text-label font-semibold text-glacier-700 underline-offset-4 hover:underline">
-          Go to sign in
-        </Link>
+        <TextLink href="/sign-in">Go to sign in</TextLink>
       </section>
     );
   }
