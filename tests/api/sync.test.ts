@@ -176,6 +176,19 @@ describe("sync routes", () => {
     expect(await countRows(db, "protocol_sources", { protocol_id: id, deleted_at: null })).toBe(1);
   });
 
+  it("keeps readings append-only: a second reading at the same moment in the same store is ignored, not doubled", async () => {
+    const storeId = uuid();
+    const takenAt = "2026-11-21T06:00:00.000Z";
+    const r = await pushAs(grower, [
+      mutation("store.create", { id: storeId, name: "Shed freezer", kind: "freezer" }),
+      mutation("reading.record", { id: uuid(), store_id: storeId, taken_at: takenAt, temperature_c: -18 }),
+      mutation("reading.record", { id: uuid(), store_id: storeId, taken_at: takenAt, temperature_c: -17.5 }),
+    ]);
+    expect(r.body.rejected).toEqual([]);
+    expect(r.body.applied).toHaveLength(3);
+    expect(await db("readings").where({ store_id: storeId }).select("temperature_c")).toEqual([{ temperature_c: -18 }]);
+  });
+
   it("answers 401 without a session and 403 for a push from another origin", async () => {
     const noSession = await push(memberRequest("/api/sync/push", null, { method: "POST", json: { deviceId: "d", mutations: [] } }), ctx);
     expect(noSession.status).toBe(401);
