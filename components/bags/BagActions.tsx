@@ -51,7 +51,8 @@ export function BagActions({ bag, state, stores, today, can }: { bag: Bag; state
 
   const cold = inTheCold(state);
   const finished = state === "sown" || state === "discarded";
-  const anything = (can.check && cold) || (can.pull && cold) || (can.sow && !finished) || (can.discard && !finished) || can.edit;
+  // Once pulled, sowing is recorded in the panel further down the bag page.
+  const anything = (can.check && cold) || (can.pull && cold) || (can.sow && cold) || (can.discard && !finished) || can.edit;
   if (!anything) {
     return <p className="text-label text-ink-soft">{finished ? "This bag is finished." : "Your role can read this bag but not change it."}</p>;
   }
@@ -69,7 +70,7 @@ export function BagActions({ bag, state, stores, today, can }: { bag: Bag; state
             Pull
           </Button>
         ) : null}
-        {can.sow && !finished ? (
+        {can.sow && cold ? (
           <Link href={`/sowing?bag=${encodeURIComponent(bag.id)}`} className={buttonClass("secondary", "md")}>
             Record sowing
           </Link>

@@ -169,7 +169,8 @@ function BagDetailView({ data }: { data: BagDetailData }) {
             startedOn={bag.start_date ?? bag.planned_start_date!}
             opensOn={window.opensOn}
             closesOn={window.closesOn}
-            today={today}
+            today={bag.pulled_on ?? bag.discarded_on ?? today}
+            markerLabel={bag.pulled_on ? "Pulled" : bag.discarded_on ? "Discarded" : "Today"}
             shifted={shifted && inCold ? { opensOn: shifted.opensOn, closesOn: shifted.closesOn } : null}
           />
         ) : (
@@ -250,7 +251,7 @@ function ColdDays({
           </p>
           {e.lostDays > 0 ? (
             <p className="text-body text-wheat-700">
-              About {e.lostDays} day{e.lostDays === 1 ? "" : "s"} of cold were lost
+              About {e.lostDays === 1 ? "1 day of cold was" : `${e.lostDays} days of cold were`} lost
               {shifted && inCold
                 ? `: the window moves to ${formatShortDay(shifted.opensOn)}${shifted.closesOn ? `–${formatShortDay(shifted.closesOn)}` : ""}.`
                 : "."}
@@ -266,6 +267,9 @@ function ColdDays({
           ) : null}
           <ul className="list-disc space-y-1 pl-5 text-label text-ink-soft">
             {data.readings.length === 0 ? <li>This store has no readings on this phone yet.</li> : null}
+            {e.gaps.length === 0 ? (
+              <li>Had the readings stopped for more than 6 hours, that time would be counted as cold, as a working fridge stays in its band.</li>
+            ) : null}
             {e.assumptions.map((a) => (
               <li key={a}>{a}</li>
             ))}

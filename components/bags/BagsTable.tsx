@@ -41,7 +41,8 @@ const col = createColumnHelper<BagRow>();
 // Each column sorts with the tested comparator from bag-rows.ts; tanstack keeps the sort state and direction.
 const tableOrder: BagSortKey[] = ["code", "state", "species", "store", "window", "started"];
 const columns = tableOrder.map((key) =>
-  col.display({
+  // An accessor (not a display column): tanstack only sorts columns that have one.
+  col.accessor((r) => r.code, {
     id: key,
     header: bagSortLabels[key],
     enableSorting: true,
@@ -102,7 +103,7 @@ export function BagsTable() {
         action={
           canCreate ? (
             <Link href="/bags/new" className={buttonClass("primary", "md")}>
-              <span aria-hidden="true">＋</span> New bag
+              <span aria-hidden="true">+</span> New bag
             </Link>
           ) : null
         }
@@ -139,29 +140,31 @@ export function BagsTable() {
             {showFilters ? "Fewer filters" : "More filters"}
             {activeFilterCount ? <span className="rounded-full bg-glacier-700 px-2 text-white">{activeFilterCount}</span> : null}
           </button>
-          <label className="flex min-w-0 flex-1 items-center gap-2 md:hidden">
-            <span className="text-label font-semibold text-ink-soft">Sort</span>
+          {filters !== defaultBagFilters ? (
+            <button type="button" className={buttonClass("quiet", "md")} onClick={() => setFilters(defaultBagFilters)}>
+              Reset
+            </button>
+          ) : null}
+        </div>
+
+        <div className="flex items-center gap-2 md:hidden">
+          <label className="flex min-w-0 flex-1 items-center">
             <Select value={sortKey} onChange={(e) => setSorting([{ id: e.target.value, desc: sortDesc }])} aria-label="Sort bags by">
               {bagSortKeys.map((k) => (
                 <option key={k} value={k}>
-                  {bagSortLabels[k]}
+                  Sort: {bagSortLabels[k]}
                 </option>
               ))}
             </Select>
           </label>
           <button
             type="button"
-            className={`${buttonClass("quiet", "md")} md:hidden`}
+            className={buttonClass("quiet", "md")}
             onClick={() => setSorting([{ id: sortKey, desc: !sortDesc }])}
             aria-label={sortDesc ? "Sorted descending; sort ascending" : "Sorted ascending; sort descending"}
           >
             <span aria-hidden="true">{sortDesc ? "↓" : "↑"}</span>
           </button>
-          {filters !== defaultBagFilters ? (
-            <button type="button" className={buttonClass("quiet", "md")} onClick={() => setFilters(defaultBagFilters)}>
-              Reset
-            </button>
-          ) : null}
         </div>
 
         {showFilters ? (

@@ -23,6 +23,7 @@ import { useMember } from "@/components/season/use-member";
 import { formatLongDay } from "./format-day";
 import { describeSaveError } from "./save-error";
 import { useBagSources, useToday } from "./use-farm-rows";
+import { sortLots } from "@/components/lots/lot-use";
 
 // The bag form uses the shared Bag schema (BagInput), with one extra choice: does the bag go in today or later.
 const NewBagFields = BagInput.pick({
@@ -205,7 +206,7 @@ function NewBagFormBody({ sources, today, initialLotId }: { sources: BagRowSourc
         <Field label="Seed lot" htmlFor="lot_id" error={err("lot_id")}>
           <Select id="lot_id" aria-invalid={!!errors.lot_id} {...register("lot_id")}>
             <option value="">Choose a lot…</option>
-            {sources.lots.map((l) => (
+            {sortLots(sources.lots).map((l) => (
               <option key={l.id} value={l.id}>
                 {lotLabel(l)}
               </option>

@@ -13,14 +13,16 @@ const phaseWords = {
   past_window: "past the latest pull day",
 } as const;
 
-export function WindowBar(props: WindowBarInput & { className?: string }) {
+/** `today` is where the needle stands; for a pulled or discarded bag pass that day and its `markerLabel`. */
+export function WindowBar(props: WindowBarInput & { className?: string; markerLabel?: string }) {
+  const marker = props.markerLabel ?? "Today";
   const g = computeWindowBarGeometry(props);
   const { startedOn, opensOn, closesOn, shifted } = props;
   const label =
     `Started ${formatShortDay(startedOn)}; window opens ${formatShortDay(opensOn)}` +
     (closesOn ? ` and closes ${formatShortDay(closesOn)}` : " with no latest day") +
     (shifted ? `; moved to ${formatShortDay(shifted.opensOn)}${shifted.closesOn ? `–${formatShortDay(shifted.closesOn)}` : ""} for lost cold` : "") +
-    `; today is day ${g.today.dayNumber}, ${phaseWords[g.today.phase]}.`;
+    (marker === "Today" ? `; today is day ${g.today.dayNumber}, ${phaseWords[g.today.phase]}.` : `; ${marker.toLowerCase()} on day ${g.today.dayNumber}.`);
   const needleClass = g.today.phase === "past_window" ? "bg-ember-600" : "bg-ink";
   return (
     <figure className={props.className} aria-label={label} role="img">
@@ -31,7 +33,7 @@ export function WindowBar(props: WindowBarInput & { className?: string }) {
           style={{ left: `${Math.min(88, Math.max(12, g.today.pct))}%` }}
           aria-hidden="true"
         >
-          {g.today.phase === "before_start" ? "Starts later" : `Today · day ${g.today.dayNumber}`}
+          {g.today.phase === "before_start" ? "Starts later" : `${marker} · day ${g.today.dayNumber}`}
         </span>
         <div className="relative h-5 overflow-hidden rounded-full bg-rime-200" aria-hidden="true">
           {/* frost track while chilling: fine diagonal hatching */}
