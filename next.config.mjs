@@ -44,9 +44,15 @@ function publicAssets(dir = "public/icons") {
     .map((f) => ({ url: `/${path.posix.join("icons", f)}`, revision: createHash("sha256").update(fs.readFileSync(path.join(dir, f))).digest("hex").slice(0, 16) }));
 }
 
+// Several builds can share this tree (NEXT_DIST_DIR): each writes its own worker file so one build's
+// worker never points at another build's scripts. The default build serves /sw.js.
+const distDir = process.env.NEXT_DIST_DIR || ".next";
+const swFile = distDir === ".next" ? "sw.js" : `sw-${distDir.replace(/[^a-z0-9]+/gi, "") || "build"}.js`;
+
 const withSerwist = withSerwistInit({
   swSrc: "sw/index.ts",
-  swDest: "public/sw.js",
+  swDest: `public/${swFile}`,
+  swUrl: `/${swFile}`,
   // `next dev` runs on Turbopack without the service worker.
   disable: process.env.NODE_ENV === "development",
   // Reloading on reconnect would throw away a half-filled check; the sync loop handles reconnects.
@@ -60,7 +66,7 @@ const withSerwist = withSerwistInit({
 const nextConfig = {
   reactStrictMode: true,
   // Parallel local builds (several people in one tree) each get their own output folder.
-  distDir: process.env.NEXT_DIST_DIR || ".next",
+  distDir,
   poweredByHeader: false,
   // knex resolves every dialect driver dynamically; keep it (and the native sqlite binding) out of the bundle.
   serverExternalPackages: ["knex", "better-sqlite3", "smtp-server", "nodemailer"],
@@ -73,7 +79,7 @@ const nextConfig = {
     return [
       { source: "/:path*", headers: securityHeaders({ dev: process.env.NODE_ENV !== "production" }) },
       // The worker must always be fetched fresh so a new build's pages replace the old ones.
-      { source: "/sw.js", headers: [{ key: "Cache-Control", value: "no-cache, no-store, must-revalidate" }] },
+      { source: `/${swFile}`, headers: [{ key: "Cache-Control", value: "no-cache, no-store, must-revalidate" }] },
     ];
   },
 };
