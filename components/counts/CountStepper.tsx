@@ -55,8 +55,8 @@ export function CountStepper({ sowing, totals, today, canCount }: { sowing: Sowi
           Seedlings up so far (running total, of {sowing.seeds_sown} sown)
         </label>
         <div className="mt-1 flex items-stretch gap-2">
-          <Button tone="quiet" size="xl" aria-label="One fewer" className="w-20 text-display" onClick={() => step(-1)} disabled={value <= 0}>
-            −
+          <Button tone="quiet" size="xl" aria-label="One fewer" className="w-20" onClick={() => step(-1)} disabled={value <= 0}>
+            <span className="text-display leading-none" aria-hidden="true">−</span>
           </Button>
           <input
             id={inputId}
@@ -72,8 +72,8 @@ export function CountStepper({ sowing, totals, today, canCount }: { sowing: Sowi
             aria-describedby={`${inputId}-why`}
             aria-invalid={!verdict.ok}
           />
-          <Button tone="quiet" size="xl" aria-label="One more" className="w-20 text-display" onClick={() => step(1)} disabled={value >= sowing.seeds_sown}>
-            +
+          <Button tone="quiet" size="xl" aria-label="One more" className="w-20" onClick={() => step(1)} disabled={value >= sowing.seeds_sown}>
+            <span className="text-display leading-none" aria-hidden="true">+</span>
           </Button>
         </div>
         <div className="mt-2 flex gap-2">

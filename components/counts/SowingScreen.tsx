@@ -4,6 +4,7 @@ import Link from "next/link";
 import { useSearchParams } from "next/navigation";
 import { useLiveQuery } from "dexie-react-hooks";
 import { getLocalDb } from "@/lib/client/db";
+import { formatBagCode } from "@/lib/domain";
 import { Card, PageHeader } from "@/components/ui/Card";
 import { formatShortDay as formatDay } from "@/components/bags/format-day";
 import { SowingPanel } from "./SowingPanel";
@@ -26,7 +27,7 @@ function OneBag({ bagId }: { bagId: string }) {
       <Link href="/sowing" className="inline-flex min-h-tap items-center text-label font-semibold text-glacier-700">
         ← Bags to sow and count
       </Link>
-      <PageHeader title={head?.bag ? `Bag ${head.bag.code}` : "Sowing and counts"} subtitle={head?.lot ? `${head.lot.species}${head.lot.common_name ? ` · ${head.lot.common_name}` : ""}` : undefined} />
+      <PageHeader title={head?.bag ? `Bag ${formatBagCode(head.bag.code)}` : "Sowing and counts"} subtitle={head?.lot ? `${head.lot.species}${head.lot.common_name ? ` · ${head.lot.common_name}` : ""}` : undefined} />
       <SowingPanel bagId={bagId} />
     </main>
   );
@@ -55,7 +56,7 @@ function BagPicker() {
           <li key={bag.id}>
             <Link href={`/sowing?bag=${bag.id}`} className="flex min-h-tap items-center justify-between gap-3 rounded-card border border-rime-200 bg-white p-4 hover:border-glacier-500">
               <span>
-                <span className="block font-mono font-bold tracking-wider">{bag.code}</span>
+                <span className="block font-mono font-bold tracking-wider">{formatBagCode(bag.code)}</span>
                 <span className="block text-label text-ink-soft">{lot?.species ?? "Unknown lot"}</span>
               </span>
               <span className={`rounded-full px-3 py-1 text-label font-semibold ${bag.sown_on ? "bg-moss-100 text-moss-700" : "bg-wheat-100 text-wheat-700"}`}>

@@ -6,6 +6,7 @@ import { useLiveQuery } from "dexie-react-hooks";
 import { getLocalDb, type ProtocolRow } from "@/lib/client/db";
 import { deletePlanItem } from "@/lib/client/repo";
 import { vocabularyLabels } from "@/lib/schemas/vocabulary";
+import { formatBagCode } from "@/lib/domain";
 import type { PlanItem } from "@/lib/schemas/plan";
 import type { Lot } from "@/lib/schemas/lot";
 import type { Store } from "@/lib/schemas/store";
@@ -201,7 +202,7 @@ function PlanRowCard({
         </div>
         {bag ? (
           <Link href={`/bags/view?id=${encodeURIComponent(bag.id)}`} className="shrink-0 rounded-full bg-moss-100 px-3 py-1 text-label font-semibold text-moss-700">
-            ✓ bag {bag.code}
+            ✓ bag {formatBagCode(bag.code)}
           </Link>
         ) : null}
       </header>
@@ -256,7 +257,7 @@ function PlanRowCard({
           ))}
         </ul>
       ) : null}
-      {protocol ? <p className="text-label text-ink-soft">Protocol: {protocol.species}{protocol.is_farm_own ? " (farm's own)" : ""}.</p> : null}
+      {protocol ? <p className="text-label text-ink-soft">Protocol: {protocol.species}{protocol.is_farm_own ? " (farm's own)" : ""}</p> : null}
       {error ? (
         <p role="alert" className="text-label font-medium text-ember-700">
           {error}
@@ -274,12 +275,14 @@ function PlanRowCard({
           onDone={() => setMode("view")}
         />
       ) : (
-        <div className="flex flex-wrap gap-2">
+        <div className="grid grid-cols-2 gap-2">
           {canStart && !bag ? (
             lot ? (
-              <Button onClick={() => setMode("start")}>Start this bag</Button>
+              <Button className="col-span-2" onClick={() => setMode("start")}>
+                Start this bag
+              </Button>
             ) : (
-              <span className="text-label text-ink-soft">Choose a lot to start a bag.</span>
+              <span className="col-span-2 text-label text-ink-soft">Choose a lot to start a bag.</span>
             )
           ) : null}
           {canPlan ? (
@@ -293,7 +296,7 @@ function PlanRowCard({
             </>
           ) : null}
           {bag ? (
-            <Link href={`/bags/view?id=${encodeURIComponent(bag.id)}`} className={buttonClass("secondary")}>
+            <Link href={`/bags/view?id=${encodeURIComponent(bag.id)}`} className={buttonClass("secondary", "md", "col-span-2")}>
               Open bag
             </Link>
           ) : null}

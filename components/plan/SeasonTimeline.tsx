@@ -48,8 +48,8 @@ export function SeasonTimeline({ timeline }: { timeline: Timeline }) {
           ))}
         </ol>
         {timeline.today !== null ? (
-          <div className="pointer-events-none absolute bottom-0 top-0 border-l-2 border-dashed border-ember-600" style={{ left: `${timeline.today}%` }} aria-hidden="true">
-            <span className="absolute -top-0.5 left-1 rounded bg-ember-100 px-1 text-[0.7rem] font-bold text-ember-700">today</span>
+          <div className="pointer-events-none absolute bottom-0 top-6 border-l-2 border-dashed border-ember-600" style={{ left: `${timeline.today}%` }} aria-hidden="true">
+            <span className="absolute -bottom-1 left-1 rounded bg-ember-100 px-1 text-[0.7rem] font-bold text-ember-700">today</span>
           </div>
         ) : null}
       </div>

@@ -6,7 +6,7 @@ import { useSearchParams } from "next/navigation";
 import Dexie from "dexie";
 import { useLiveQuery } from "dexie-react-hooks";
 import { getLocalDb } from "@/lib/client/db";
-import { determineBagState, formatTemperature } from "@/lib/domain";
+import { determineBagState, formatBagCode, formatTemperature } from "@/lib/domain";
 import { vocabularyLabels } from "@/lib/schemas/vocabulary";
 import { Button } from "@/components/ui/Button";
 import { Card, PageHeader } from "@/components/ui/Card";
@@ -100,16 +100,16 @@ export function StoreView() {
       ) : null}
 
       <Card>
-        <div className="mb-3 flex items-center justify-between gap-2">
-          <h2 className="text-body font-bold text-glacier-800">Readings</h2>
-          <div role="group" aria-label="Period" className="flex gap-1">
+        <h2 className="text-body font-bold text-glacier-800">Readings</h2>
+        <div className="mb-3 mt-2">
+          <div role="group" aria-label="Period" className="grid grid-cols-4 gap-1">
             {ranges.map((r) => (
               <button
                 key={r.key}
                 type="button"
                 aria-pressed={range === r.key}
                 onClick={() => setRange(r.key)}
-                className={`min-h-tap rounded-lg px-2.5 text-label font-semibold ${range === r.key ? "bg-glacier-700 text-white" : "bg-rime-100 text-ink"}`}
+                className={`min-h-tap rounded-lg px-2 text-label font-semibold ${range === r.key ? "bg-glacier-700 text-white" : "bg-rime-100 text-ink"}`}
               >
                 {r.label}
               </button>
@@ -163,7 +163,9 @@ export function StoreView() {
           {bagRows.map(({ bag, lot, cold, state }) => (
             <li key={bag.id} className="py-3">
               <div className="flex items-center justify-between gap-2">
-                <p className="font-mono text-body font-bold tracking-wider">{bag.code}</p>
+                <Link href={`/bags/view?id=${encodeURIComponent(bag.id)}`} className="font-mono text-body font-bold tracking-wider text-glacier-800 underline-offset-2 hover:underline">
+                  {formatBagCode(bag.code)}
+                </Link>
                 <StateBadge state={state} />
               </div>
               <p className="text-label text-ink">

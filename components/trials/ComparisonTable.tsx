@@ -37,7 +37,7 @@ const columns = [
   }),
   col.display({
     id: "diff",
-    header: "Best minus this, points (Newcombe 95 %)",
+    header: "Best minus this (Newcombe 95 %), points",
     cell: ({ row: { original: r } }) => {
       if (r.isBest) return "reference";
       if (!r.vsBest) return "—";
@@ -61,32 +61,49 @@ export function ComparisonTable({ table }: { table: TrialTable }) {
   }));
   const t = useReactTable({ data, columns, getCoreRowModel: getCoreRowModel() });
   return (
-    <div className="overflow-x-auto rounded-xl border border-rime-200">
-      <table className="min-w-[36rem] w-full text-left text-label">
-        <caption className="sr-only">Germination by arm, with intervals and the comparison against the best arm</caption>
-        <thead className="bg-rime-100">
-          {t.getHeaderGroups().map((g) => (
-            <tr key={g.id}>
-              {g.headers.map((h) => (
-                <th key={h.id} scope="col" className="px-2 py-2 align-bottom font-semibold">
-                  {flexRender(h.column.columnDef.header, h.getContext())}
-                </th>
-              ))}
-            </tr>
-          ))}
-        </thead>
-        <tbody>
-          {t.getRowModel().rows.map((r) => (
-            <tr key={r.id} className="border-t border-rime-100 bg-white">
+    <>
+      {/* Phones: one card per arm, each value under its column's name. */}
+      <ul className="space-y-2 sm:hidden" aria-label="Germination by arm">
+        {t.getRowModel().rows.map((r) => (
+          <li key={r.id} className="rounded-xl border border-rime-200 bg-white p-3">
+            <dl className="space-y-1 text-label">
               {r.getVisibleCells().map((c) => (
-                <td key={c.id} className="px-2 py-2 align-top">
-                  {flexRender(c.column.columnDef.cell, c.getContext())}
-                </td>
+                <div key={c.id} className={c.column.id === "arm" ? "text-body" : "flex justify-between gap-3"}>
+                  {c.column.id === "arm" ? null : <dt className="text-ink-soft">{String(c.column.columnDef.header)}</dt>}
+                  <dd className={c.column.id === "arm" ? "" : "text-right font-semibold text-ink"}>{flexRender(c.column.columnDef.cell, c.getContext())}</dd>
+                </div>
               ))}
-            </tr>
-          ))}
-        </tbody>
-      </table>
-    </div>
+            </dl>
+          </li>
+        ))}
+      </ul>
+      <div className="hidden overflow-x-auto rounded-xl border border-rime-200 sm:block">
+        <table className="w-full text-left text-label">
+          <caption className="sr-only">Germination by arm, with intervals and the comparison against the best arm</caption>
+          <thead className="bg-rime-100">
+            {t.getHeaderGroups().map((g) => (
+              <tr key={g.id}>
+                {g.headers.map((h) => (
+                  <th key={h.id} scope="col" className="px-2 py-2 align-bottom font-semibold">
+                    {flexRender(h.column.columnDef.header, h.getContext())}
+                  </th>
+                ))}
+              </tr>
+            ))}
+          </thead>
+          <tbody>
+            {t.getRowModel().rows.map((r) => (
+              <tr key={r.id} className="border-t border-rime-100 bg-white">
+                {r.getVisibleCells().map((c) => (
+                  <td key={c.id} className="px-2 py-2 align-top">
+                    {flexRender(c.column.columnDef.cell, c.getContext())}
+                  </td>
+                ))}
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+    </>
   );
 }

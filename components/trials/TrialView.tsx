@@ -6,7 +6,7 @@ import { useSearchParams } from "next/navigation";
 import { useLiveQuery } from "dexie-react-hooks";
 import { getLocalDb } from "@/lib/client/db";
 import { saveProtocol, updateBag } from "@/lib/client/repo";
-import { describeReconciledPhase, determineBagState, reconcileProtocol } from "@/lib/domain";
+import { describeReconciledPhase, determineBagState, formatBagCode, reconcileProtocol } from "@/lib/domain";
 import { vocabularyLabels, type StoreKind } from "@/lib/schemas/vocabulary";
 import type { MutationArgs } from "@/lib/schemas/mutations";
 import { Button } from "@/components/ui/Button";
@@ -184,11 +184,11 @@ export function TrialView() {
             return (
               <li key={b.id} className="flex items-center gap-3 py-2">
                 <div className="min-w-0 flex-1">
-                  <p className="font-mono font-bold tracking-wider">{b.code}</p>
+                  <p className="font-mono font-bold tracking-wider">{formatBagCode(b.code)}</p>
                   <StateBadge state={state} />
                 </div>
                 <label className="sr-only" htmlFor={`arm-of-${b.id}`}>
-                  Arm for bag {b.code}
+                  Arm for bag {formatBagCode(b.code)}
                 </label>
                 <select
                   id={`arm-of-${b.id}`}
