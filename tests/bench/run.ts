@@ -1,0 +1,398 @@
+// `npm run bench`: Rimebook's performance figures, each beside a baseline measured in the same run on the same
+// machine, so the ratio means something wherever it is run. Not part of `npm test`.
+//   npm run bench                    all benchmarks
+//   npm run bench -- push qr         only some (push, pull, firstload, offline, today, qr)
+// Results: a table on stdout, plus artifacts/bench/results.{json,md}.
+import fs from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import http from "node:http";
+import zlib from "node:zlib";
+import { randomUUID } from "node:crypto";
+import { performance } from "node:perf_hooks";
+
+const ROOT = path.resolve(__dirname, "../..");
+const OUT = path.join(ROOT, "artifacts", "bench");
+const TMP = fs.mkdtempSync(path.join(os.tmpdir(), "rimebook-bench-"));
+process.env.UPLOAD_DIR ??= path.join(TMP, "uploads");
+process.env.MAILBOX_DIR ??= path.join(TMP, "mailbox");
+process.env.NEXT_TELEMETRY_DISABLED = "1";
+
+type Row = { bench: string; measure: string; value: number; unit: string; baseline: string; baselineValue: number; ratio: number; note?: string };
+const rows: Row[] = [];
+const failures: string[] = [];
+
+function record(r: Omit<Row, "ratio"> & { higherIsBetter?: boolean }) {
+  const { higherIsBetter, ...rest } = r;
+  // Ratio is always "how many times the baseline's cost": >1 means slower/heavier than the baseline.
+  const ratio = higherIsBetter ? r.baselineValue / r.value : r.value / r.baselineValue;
+  rows.push({ ...rest, ratio });
+  console.log(`  ${r.bench} · ${r.measure}: ${fmt(r.value)} ${r.unit} vs ${fmt(r.baselineValue)} ${r.unit} (${r.baseline}) → ×${ratio.toFixed(2)}`);
+}
+
+const fmt = (n: number) => (n >= 100 ? n.toFixed(0) : n >= 10 ? n.toFixed(1) : n.toFixed(2));
+const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
+const time = async (fn: () => unknown | Promise<unknown>) => {
+  const t = performance.now();
+  await fn();
+  return performance.now() - t;
+};
+
+// ---------------------------------------------------------------------------------------------------------
+// 1. Sync push apply: 10,000 check mutations through POST /api/sync/push vs raw better-sqlite3 inserts.
+
+const CHECKS = 10_000;
+
+async function benchPush() {
+  const { useDatabase } = await import("@/lib/server/db");
+  const { signedInMember, memberRequest } = await import("../support/auth");
+  const { POST } = await import("@/app/api/sync/push/route");
+  const file = path.join(TMP, "push.sqlite");
+  const db = await useDatabase(`file:${file}`);
+  await db.migrate.latest();
+  const owner = await signedInMember(db, { role: "owner" });
+  const ctx = { params: Promise.resolve({}) };
+  const push = async (mutations: unknown[]) => {
+    const res = await POST(memberRequest("/api/sync/push", owner, { method: "POST", json: { deviceId: "bench-phone", mutations } }), ctx);
+    const body = (await res.json()) as { applied: string[]; rejected: { id: string; error: unknown }[] };
+    if (res.status !== 200 || body.rejected.length) throw new Error(`push refused: ${res.status} ${JSON.stringify(body).slice(0, 300)}`);
+    return body;
+  };
+  const m = (name: string, args: unknown) => ({ id: randomUUID(), name, args, at: new Date().toISOString() });
+  const lotId = randomUUID();
+  const bagId = randomUUID();
+  await push([m("lot.create", { id: lotId, species: "Asclepias tuberosa", year: 2025, quantity: 400 }), m("bag.create", { id: bagId, code: "7K3Q9M-X", lot_id: lotId, start_date: "2026-11-01" })]);
+
+  const mutations = Array.from({ length: CHECKS }, (_, i) =>
+    m("check.record", { id: randomUUID(), bag_id: bagId, checked_at: new Date(Date.UTC(2026, 10, 1) + i * 60_000).toISOString(), moisture: "damp", mould: "clean", sprouts: "none", actions: [] }),
+  );
+  const pushMs = await time(async () => {
+    for (let i = 0; i < mutations.length; i += 1000) await push(mutations.slice(i, i + 1000));
+  });
+  const stored = await db("checks").where({ bag_id: bagId }).select();
+  if (stored.length !== CHECKS) throw new Error(`expected ${CHECKS} checks stored, found ${stored.length}`);
+
+  // Baseline: the very rows the push stored, inserted with one prepared statement in one transaction into a
+  // fresh file with the same migrations and pragmas (WAL, synchronous NORMAL, foreign keys on).
+  // Every other row (farm, user, lot, bag, protocols…) is copied first, untimed, so the checks' foreign keys hold.
+  const tables = (await db.raw("SELECT name FROM sqlite_master WHERE type='table' AND name NOT LIKE 'sqlite_%' AND name NOT LIKE 'knex_%' AND name <> 'checks'")) as { name: string }[];
+  const parents: Record<string, Record<string, unknown>[]> = {};
+  for (const { name } of tables) parents[name] = await db(name).select();
+  await db.destroy();
+  const baseFile = path.join(TMP, "raw.sqlite");
+  const base = await useDatabase(`file:${baseFile}`);
+  await base.migrate.latest();
+  await base.destroy();
+  const Database = (await import("better-sqlite3")).default;
+  const raw = new Database(baseFile);
+  raw.pragma("journal_mode = WAL");
+  raw.pragma("synchronous = NORMAL");
+  raw.pragma("foreign_keys = ON");
+  const insertAll = (table: string, list: Record<string, unknown>[]) => {
+    if (!list.length) return;
+    const cols = Object.keys(list[0]);
+    const stmt = raw.prepare(`INSERT INTO ${table} (${cols.map((c) => `"${c}"`).join(",")}) VALUES (${cols.map(() => "?").join(",")})`);
+    raw.transaction(() => {
+      for (const r of list) stmt.run(cols.map((c) => r[c] as never));
+    })();
+  };
+  raw.pragma("foreign_keys = OFF");
+  for (const [t, list] of Object.entries(parents)) insertAll(t, list);
+  raw.pragma("foreign_keys = ON");
+  const rawMs = await time(() => insertAll("checks", stored));
+  raw.close();
+  record({ bench: "sync push", measure: `apply ${CHECKS.toLocaleString("en")} check mutations (10 pushes of 1,000)`, value: pushMs, unit: "ms", baseline: "raw better-sqlite3 insert of the same rows, one transaction", baselineValue: rawMs });
+  record({ bench: "sync push", measure: "per check mutation", value: (pushMs * 1000) / CHECKS, unit: "µs", baseline: "raw insert per row", baselineValue: (rawMs * 1000) / CHECKS });
+}
+
+// ---------------------------------------------------------------------------------------------------------
+// The production server (for pull, first-load JS and offline reload).
+
+type Server = Awaited<ReturnType<typeof import("../e2e/support/server").startApp>>;
+let server: Server | null = null;
+let cookie = "";
+
+async function getServer(): Promise<Server> {
+  if (server) return server;
+  const { startApp } = await import("../e2e/support/server");
+  console.log("  (starting the production build; builds .next-e2e first if it is missing or stale)");
+  server = await startApp({ name: "bench" });
+  const res = await fetch(`${server.origin}/api/auth/sign-up`, {
+    method: "POST",
+    headers: { "content-type": "application/json", origin: server.origin },
+    body: JSON.stringify({ email: "bench@bramblewick.example", password: "frost on the barn door", name: "Bench Grower", farmName: "Bramblewick Bench" }),
+  });
+  if (res.status !== 201 && res.status !== 200) throw new Error(`sign-up failed: ${res.status} ${await res.text()}`);
+  cookie = res.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+  return server;
+}
+
+async function httpPush(app: Server, mutations: unknown[]) {
+  const res = await fetch(`${app.origin}/api/sync/push`, {
+    method: "POST",
+    headers: { "content-type": "application/json", origin: app.origin, cookie },
+    body: JSON.stringify({ deviceId: "bench-phone", mutations }),
+  });
+  if (!res.ok) throw new Error(`push ${res.status}: ${await res.text()}`);
+  return res.json();
+}
+
+// 2. Pull under autocannon vs a bare node:http server returning the same JSON.
+
+async function benchPull() {
+  const app = await getServer();
+  const m = (name: string, args: unknown) => ({ id: randomUUID(), name, args, at: new Date().toISOString() });
+  const lotId = randomUUID();
+  const bagId = randomUUID();
+  await httpPush(app, [m("lot.create", { id: lotId, species: "Echinacea pallida", year: 2025, quantity: 900 }), m("bag.create", { id: bagId, code: "PULL01-A", lot_id: lotId, start_date: "2026-11-01" })]);
+  for (let b = 0; b < 2; b++) {
+    await httpPush(app, Array.from({ length: 500 }, (_, i) => m("check.record", { id: randomUUID(), bag_id: bagId, checked_at: new Date(Date.UTC(2026, 10, 2) + (b * 500 + i) * 60_000).toISOString(), moisture: "damp", mould: "clean", sprouts: "none", actions: [] })));
+  }
+  const url = `${app.origin}/api/sync/pull?since=0&limit=100`;
+  const sample = await fetch(url, { headers: { cookie } });
+  if (!sample.ok) throw new Error(`pull ${sample.status}`);
+  const body = await sample.text();
+  const changes = (JSON.parse(body) as { changes: unknown[] }).changes.length;
+
+  const bare = http.createServer((_req, res) => {
+    res.writeHead(200, { "content-type": "application/json", "content-length": Buffer.byteLength(body) });
+    res.end(body);
+  });
+  await new Promise<void>((r) => bare.listen(0, "127.0.0.1", () => r()));
+  const barePort = (bare.address() as { port: number }).port;
+
+  const autocannon = (await import("autocannon")).default;
+  const load = (target: string, headers: Record<string, string>) =>
+    autocannon({ url: target, connections: 50, duration: Number(process.env.BENCH_SECONDS ?? 10), headers }) as unknown as Promise<{
+      requests: { average: number };
+      latency: { p50: number; p99: number };
+      non2xx: number;
+      errors: number;
+    }>;
+  const appRun = await load(url, { cookie });
+  const bareRun = await load(`http://127.0.0.1:${barePort}/`, {});
+  bare.close();
+  if (appRun.non2xx || appRun.errors) failures.push(`pull: ${appRun.non2xx} non-2xx and ${appRun.errors} errors under load`);
+  const what = `GET /api/sync/pull (${changes} changes, ${(body.length / 1024).toFixed(0)} kB), 50 connections`;
+  record({ bench: "sync pull", measure: `${what}: requests/s`, value: appRun.requests.average, unit: "req/s", baseline: "bare node:http, same JSON", baselineValue: bareRun.requests.average, higherIsBetter: true });
+  record({ bench: "sync pull", measure: "latency p50", value: appRun.latency.p50, unit: "ms", baseline: "bare node:http p50", baselineValue: Math.max(bareRun.latency.p50, 0.5) });
+  record({ bench: "sync pull", measure: "latency p99", value: appRun.latency.p99, unit: "ms", baseline: "bare node:http p99", baselineValue: Math.max(bareRun.latency.p99, 0.5) });
+}
+
+// 3. First-load JS per route (gzip) vs the framework floor (the built-in not-found page of the same build).
+
+async function benchFirstLoad() {
+  const app = await getServer();
+  const { distPath } = await import("../e2e/support/build");
+  const routes = Object.values(JSON.parse(fs.readFileSync(distPath("app-path-routes-manifest.json"), "utf8")) as Record<string, string>)
+    .filter((r) => !r.startsWith("/api") && !r.startsWith("/_") && !r.includes("["))
+    .sort();
+  const gz = new Map<string, number>();
+  const scriptsOf = async (route: string) => {
+    const res = await fetch(`${app.origin}${route}`, { headers: { cookie }, redirect: "manual" });
+    const html = await res.text();
+    // Scripts the page loads (module browsers skip the nomodule polyfills).
+    const srcs = [...html.matchAll(/<script\b([^>]*)\bsrc="(\/_next\/static\/[^"]+\.js)"([^>]*)>/g)].filter((m) => !/nomodule/i.test(m[1] + m[3])).map((m) => m[2]);
+    let total = 0;
+    for (const src of new Set(srcs)) {
+      if (!gz.has(src)) gz.set(src, zlib.gzipSync(fs.readFileSync(distPath("static", src.replace("/_next/static/", "")))).length);
+      total += gz.get(src)!;
+    }
+    return { status: res.status, total, count: new Set(srcs).size };
+  };
+  const floor = await scriptsOf("/_rimebook_bench_missing_page");
+  console.log(`  framework floor (not-found page): ${(floor.total / 1024).toFixed(1)} kB gzip in ${floor.count} scripts`);
+  for (const route of routes) {
+    const r = await scriptsOf(route);
+    if (r.status >= 300) {
+      console.log(`  ${route}: HTTP ${r.status} (skipped)`);
+      continue;
+    }
+    record({ bench: "first-load JS", measure: `${route} (gzip, ${r.count} scripts)`, value: r.total / 1024, unit: "kB", baseline: "framework floor: empty not-found page, same build", baselineValue: floor.total / 1024 });
+  }
+}
+
+// 4. Offline reload of the app shell in Chromium (service worker) vs the same reload online over loopback.
+
+async function benchOffline() {
+  const app = await getServer();
+  const { launchChromium, phoneContext } = await import("../e2e/support/browser");
+  const browser = await launchChromium();
+  try {
+    const context = await phoneContext(browser, app.origin);
+    await context.addCookies(cookie.split("; ").map((c) => ({ name: c.split("=")[0], value: c.slice(c.indexOf("=") + 1), url: app.origin })));
+    const page = await context.newPage();
+    const route = process.env.BENCH_SHELL_ROUTE ?? "/today";
+    await page.goto(route, { waitUntil: "load" });
+    const controlled = await page
+      .waitForFunction(() => navigator.serviceWorker?.controller != null, undefined, { timeout: 20_000 })
+      .then(() => true)
+      .catch(() => false);
+    if (!controlled) throw new Error(`no service worker took control of ${route}`);
+    const reloads = async () => {
+      const times: number[] = [];
+      for (let i = 0; i < 12; i++) {
+        await page.reload({ waitUntil: "load" });
+        times.push(await page.evaluate(() => (performance.getEntriesByType("navigation")[0] as PerformanceNavigationTiming).loadEventEnd));
+      }
+      return median(times.slice(2));
+    };
+    const online = await reloads();
+    await context.setOffline(true);
+    const offline = await reloads();
+    const ok = await page.evaluate(() => document.body.innerText.length > 0);
+    if (!ok) throw new Error("offline reload rendered an empty page");
+    record({ bench: "offline shell", measure: `reload ${route} offline (navigation to load event, median of 10)`, value: offline, unit: "ms", baseline: "same reload online over loopback", baselineValue: online });
+  } finally {
+    await browser.close();
+  }
+}
+
+// 5. Today's round over 10,000 bags in the phone store (fake-indexeddb + lib/domain), the way the Today screen does it.
+
+const BAGS = 10_000;
+
+async function benchToday() {
+  await import("fake-indexeddb/auto");
+  const { RimebookDB } = await import("@/lib/client/db");
+  const { loadFarmRows, loadLastChecks } = await import("@/lib/client/fridge-reads");
+  const { buildRoundFromRows, cadenceFor } = await import("@/components/today/round-input");
+  const { formatIsoDay } = await import("@/lib/domain/dates");
+
+  // Real row shapes: the demo farm pulled through the pull handler, then its bags cloned to 10,000.
+  const { useDatabase } = await import("@/lib/server/db");
+  const { runKnex } = await import("../e2e/support/server");
+  const file = path.join(TMP, "demo.sqlite");
+  runKnex("migrate:latest", `file:${file}`);
+  runKnex("seed:run", `file:${file}`);
+  const db = await useDatabase(`file:${file}`);
+  const { pullChanges } = await import("@/lib/server/sync/pull");
+  const farm = await db("farms").first();
+  const byTable: Record<string, Record<string, unknown>[]> = {};
+  for (let since = 0, more = true; more; ) {
+    const page = await pullChanges(db, farm.id, since, 5000);
+    for (const c of page.changes) (byTable[c.table] ??= []).push(c.row);
+    since = Number(page.cursor);
+    more = page.more;
+  }
+  await db.destroy();
+  const demoBags = byTable.bags ?? [];
+  if (!demoBags.length) throw new Error("the demo farm has no bags to clone");
+  const today = formatIsoDay(new Date());
+  const day = (offset: number) => formatIsoDay(new Date(Date.now() - offset * 86_400_000));
+  const bags = Array.from({ length: BAGS }, (_, i) => {
+    const b = demoBags[i % demoBags.length];
+    return { ...b, id: randomUUID(), code: `BN${String(i).padStart(5, "0")}-X`, start_date: b.start_date ? day(i % 150) : b.start_date };
+  });
+  const checks = bags.filter((_, i) => i % 3 === 0).map((b, i) => ({
+    ...(byTable.checks?.[0] ?? {}),
+    id: randomUUID(),
+    bag_id: b.id,
+    checked_at: new Date(Date.now() - (i % 9) * 86_400_000).toISOString(),
+    moisture: i % 7 === 0 ? "soggy" : "damp",
+    mould: i % 11 === 0 ? "spots" : "clean",
+    sprouts: i % 13 === 0 ? "first_roots" : "none",
+    actions: [],
+    deleted_at: null,
+  }));
+
+  const phone = new RimebookDB(`bench-${randomUUID()}`);
+  await phone.transaction("rw", [phone.protocols, phone.lots, phone.stores, phone.bags, phone.checks], async () => {
+    await phone.protocols.bulkPut((byTable.protocols ?? []) as never[]);
+    await phone.lots.bulkPut((byTable.lots ?? []) as never[]);
+    await phone.stores.bulkPut((byTable.stores ?? []) as never[]);
+    await phone.bags.bulkPut(bags as never[]);
+    await phone.checks.bulkPut(checks as never[]);
+  });
+
+  let due = 0;
+  const loadRound = async () => {
+    const rows = await loadFarmRows(phone);
+    const live = rows.bags.filter((b) => !b.deleted_at && b.start_date && !b.pulled_on && !b.sown_on && !b.discarded_on);
+    const lastChecks = await loadLastChecks(phone, live.map((b) => b.id));
+    due = buildRoundFromRows(rows, lastChecks, today, cadenceFor(7)).items.length;
+  };
+  await loadRound();
+  const full = median([await time(loadRound), await time(loadRound), await time(loadRound)]);
+  // Just the domain part, from rows already in memory.
+  const rows = await loadFarmRows(phone);
+  const live = rows.bags.filter((b) => !b.deleted_at && b.start_date && !b.pulled_on && !b.sown_on && !b.discarded_on);
+  const lastChecks = await loadLastChecks(phone, live.map((b) => b.id));
+  const domain = median(await Promise.all([0, 1, 2, 3, 4].map(() => time(() => buildRoundFromRows(rows, lastChecks, today, cadenceFor(7))))));
+  // Baselines: a plain scan of the same rows (read them all, one pass comparing dates), and reading the table alone.
+  const readOnly = median([await time(() => phone.bags.toArray()), await time(() => phone.bags.toArray()), await time(() => phone.bags.toArray())]);
+  let scanned = 0;
+  const scan = median(
+    [0, 1, 2, 3, 4].map(() => {
+      const t = performance.now();
+      scanned = 0;
+      for (const b of rows.bags) if (b.start_date && b.start_date <= today && !b.pulled_on && !b.discarded_on) scanned++;
+      return performance.now() - t;
+    }),
+  );
+  phone.close();
+  console.log(`  ${due} of ${BAGS} bags due today; plain scan saw ${scanned} bags in the cold`);
+  record({ bench: "Today round", measure: `${BAGS.toLocaleString("en")} bags from the phone store (Dexie read + last checks + lib/domain round)`, value: full, unit: "ms", baseline: "reading the bags table alone (toArray)", baselineValue: readOnly });
+  record({ bench: "Today round", measure: `lib/domain round over ${BAGS.toLocaleString("en")} bags, rows in memory`, value: domain, unit: "ms", baseline: "plain array scan of the same rows", baselineValue: Math.max(scan, 0.01) });
+}
+
+// 6. QR decode per 640×480 frame (@zxing/library in node) vs binarising the same frame.
+
+async function benchQr() {
+  const zx = (await import("@zxing/library")) as unknown as Record<string, any> & { default?: Record<string, any> };
+  const { BinaryBitmap, HybridBinarizer, PlanarYUVLuminanceSource, QRCodeReader } = zx.default ?? zx;
+  const { qrFrameLuma, FRAME_WIDTH: W, FRAME_HEIGHT: H } = await import("../e2e/support/camera");
+  const text = "https://rimebook.example/c/7K3Q9M-X";
+  const luma = new Uint8ClampedArray(qrFrameLuma(text).buffer);
+  const source = () => new PlanarYUVLuminanceSource(luma, W, H, 0, 0, W, H, false);
+  const reader = new QRCodeReader();
+  const decode = () => {
+    const out = reader.decode(new BinaryBitmap(new HybridBinarizer(source())));
+    if (out.getText() !== text) throw new Error("decoded the wrong text");
+  };
+  const binarize = () => new HybridBinarizer(source()).getBlackMatrix();
+  for (let i = 0; i < 20; i++) decode(), binarize();
+  const n = 100;
+  const d = (await time(() => { for (let i = 0; i < n; i++) decode(); })) / n;
+  const b = (await time(() => { for (let i = 0; i < n; i++) binarize(); })) / n;
+  record({ bench: "QR decode", measure: `decode a label QR from one ${W}×${H} frame (mean of ${n})`, value: d, unit: "ms", baseline: "binarising the same frame only (HybridBinarizer)", baselineValue: b });
+}
+
+const ALL: Record<string, () => Promise<void>> = { push: benchPush, today: benchToday, qr: benchQr, pull: benchPull, firstload: benchFirstLoad, offline: benchOffline };
+
+async function main() {
+  const wanted = process.argv.slice(2).filter((a) => !a.startsWith("-"));
+  const names = wanted.length ? wanted : Object.keys(ALL);
+  console.log(`Rimebook benchmarks on ${os.cpus().length} × ${os.cpus()[0]?.model ?? "cpu"}, Node ${process.version}`);
+  for (const name of names) {
+    if (!ALL[name]) throw new Error(`unknown benchmark ${name}; choose from ${Object.keys(ALL).join(", ")}`);
+    console.log(`\n▸ ${name}`);
+    try {
+      await ALL[name]();
+    } catch (err) {
+      failures.push(`${name}: ${(err as Error).message}`);
+      console.log(`  ✗ ${(err as Error).message}`);
+    }
+  }
+  await server?.stop();
+  fs.rmSync(TMP, { recursive: true, force: true });
+
+  const table = [
+    "| benchmark | measure | result | baseline | baseline result | ratio |",
+    "|---|---|---:|---|---:|---:|",
+    ...rows.map((r) => `| ${r.bench} | ${r.measure} | ${fmt(r.value)} ${r.unit} | ${r.baseline} | ${fmt(r.baselineValue)} ${r.unit} | ×${r.ratio.toFixed(2)} |`),
+  ].join("\n");
+  console.log(`\n${table}\n`);
+  if (failures.length) console.log(`Not measured:\n${failures.map((f) => `  - ${f}`).join("\n")}`);
+  fs.mkdirSync(OUT, { recursive: true });
+  const meta = { at: new Date().toISOString(), node: process.version, cpus: os.cpus().length, cpu: os.cpus()[0]?.model, load: os.loadavg() };
+  fs.writeFileSync(path.join(OUT, "results.json"), JSON.stringify({ ...meta, rows, failures }, null, 2));
+  fs.writeFileSync(path.join(OUT, "results.md"), `${table}\n`);
+  process.exit(failures.length ? 1 : 0);
+}
+
+main().catch((err) => {
+  console.error(err);
+  void server?.stop();
+  process.exit(1);
+});
