@@ -10,6 +10,8 @@ import http from "node:http";
 import zlib from "node:zlib";
 import { randomUUID } from "node:crypto";
 import { performance } from "node:perf_hooks";
+// The phone store's IndexedDB for the Today benchmark (in memory).
+import "fake-indexeddb/auto";
 
 const ROOT = path.resolve(__dirname, "../..");
 const OUT = path.join(ROOT, "artifacts", "bench");
@@ -163,12 +165,7 @@ async function benchPull() {
 
   const autocannon = (await import("autocannon")).default;
   const load = (target: string, headers: Record<string, string>) =>
-    autocannon({ url: target, connections: 50, duration: Number(process.env.BENCH_SECONDS ?? 10), headers }) as unknown as Promise<{
-      requests: { average: number };
-      latency: { p50: number; p99: number };
-      non2xx: number;
-      errors: number;
-    }>;
+    autocannon({ url: target, connections: 50, duration: Number(process.env.BENCH_SECONDS ?? 10), headers });
   const appRun = await load(url, { cookie });
   const bareRun = await load(`http://127.0.0.1:${barePort}/`, {});
   bare.close();
@@ -233,7 +230,7 @@ async function benchOffline() {
       const times: number[] = [];
       for (let i = 0; i < 12; i++) {
         await page.reload({ waitUntil: "load" });
-        times.push(await page.evaluate(() => (performance.getEntriesByType("navigation")[0] as PerformanceNavigationTiming).loadEventEnd));
+        times.push(await page.evaluate(() => (window.performance.getEntriesByType("navigation")[0] as PerformanceNavigationTiming).loadEventEnd));
       }
       return median(times.slice(2));
     };
@@ -253,7 +250,6 @@ async function benchOffline() {
 const BAGS = 10_000;
 
 async function benchToday() {
-  await import("fake-indexeddb/auto");
   const { RimebookDB } = await import("@/lib/client/db");
   const { loadFarmRows, loadLastChecks } = await import("@/lib/client/fridge-reads");
   const { buildRoundFromRows, cadenceFor } = await import("@/components/today/round-input");
