@@ -1,0 +1,149 @@
+// Farm accounts end to end in the production build and real Chromium on a phone: an Owner signs up a farm,
+// invites a Helper, the invite arrives over real SMTP at the local fake and shows on the mailbox page, the
+// Helper accepts it in another browser profile, and is then limited to what a Helper may do.
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Browser, BrowserContext, Page } from "playwright-core";
+import { startApp, type AppServer } from "./support/server";
+import { launchChromium, phoneContext, shoot, watchErrors } from "./support/browser";
+
+let app: AppServer;
+let browser: Browser;
+let owner: BrowserContext;
+let helper: BrowserContext;
+let ownerPage: Page;
+let helperPage: Page;
+let inviteLink = "";
+const ownerErrors: string[] = [];
+
+beforeAll(async () => {
+  app = await startApp({ name: "accounts" });
+  browser = await launchChromium();
+  owner = await phoneContext(browser, app.origin);
+  helper = await phoneContext(browser, app.origin);
+  ownerPage = await owner.newPage();
+  helperPage = await helper.newPage();
+  ownerErrors.push(...watchErrors(ownerPage));
+}, 600_000);
+
+afterAll(async () => {
+  await browser?.close();
+  await app?.stop();
+});
+
+/** Errors the browser logs that are not the app's own deliberate 4xx answers. */
+const unexpected = (errors: string[]) => errors.filter((e) => !/status of (401|403|404)/.test(e));
+
+describe("a farm and its team, in the browser", () => {
+  it("sends a visitor of a farm page to sign-in, remembering the page", async () => {
+    await ownerPage.goto("/team");
+    expect(new URL(ownerPage.url()).pathname).toBe("/sign-in");
+    expect(new URL(ownerPage.url()).searchParams.get("next")).toBe("/team");
+  });
+
+  it("shows field errors in words on an empty sign-up, then signs up the farm and lands on Today", async () => {
+    await ownerPage.goto("/sign-up");
+    await ownerPage.getByRole("button", { name: "Start the farm account" }).click();
+    await expect.poll(() => ownerPage.getByText("Give the farm a name.").count()).toBe(1);
+    expect(await ownerPage.getByText("Enter your e-mail address.").count()).toBe(1);
+    await shoot(ownerPage, "accounts-sign-up-errors");
+
+    await ownerPage.getByLabel("Farm name").fill("Bramblewick Native Nursery");
+    await ownerPage.getByLabel("Your name").fill("Wren Halloway");
+    await ownerPage.getByLabel("E-mail").fill("wren@bramblewick.example");
+    await ownerPage.getByLabel("Password", { exact: true }).fill("catkins in february");
+    await ownerPage.getByRole("button", { name: "Start the farm account" }).click();
+    await ownerPage.waitForURL(/\/today/);
+    const me = await ownerPage.evaluate(() => fetch("/api/me").then((r) => r.json()));
+    expect(me).toMatchObject({ role: "owner", farm: { name: "Bramblewick Native Nursery" }, user: { name: "Wren Halloway" } });
+    const cookie = (await owner.cookies()).find((c) => c.name === "rimebook_session");
+    expect(cookie).toMatchObject({ httpOnly: true, sameSite: "Lax", path: "/" });
+  });
+
+  it("invites a Helper from the Team page; the e-mail arrives in the local mailbox with its link", async () => {
+    await ownerPage.goto("/team");
+    await ownerPage.getByLabel("E-mail").fill("moss@bramblewick.example");
+    await ownerPage.getByLabel("Role", { exact: true }).selectOption("helper");
+    await ownerPage.getByRole("button", { name: "Send invite" }).click();
+    await ownerPage.getByText("Invite sent to moss@bramblewick.example").waitFor();
+    await ownerPage.getByText("Pending invites (1)").waitFor();
+    await shoot(ownerPage, "accounts-team-owner");
+
+    await ownerPage.goto("/dev/mailbox");
+    await ownerPage.getByText("Wren Halloway invited you to Bramblewick Native Nursery on Rimebook").waitFor();
+    inviteLink = (await ownerPage.getByRole("link", { name: "Open invite link" }).first().getAttribute("href")) ?? "";
+    expect(inviteLink.startsWith(`${app.origin}/invite/`)).toBe(true);
+    await shoot(ownerPage, "accounts-mailbox");
+  });
+
+  it("accepts the invite in another browser profile, with a clear error for a short password first", async () => {
+    await helperPage.goto(inviteLink);
+    await helperPage.getByRole("heading", { name: "Join Bramblewick Native Nursery" }).waitFor();
+    await helperPage.getByLabel("Your name").fill("Moss Fenwick");
+    await helperPage.getByLabel("Choose a password").fill("short");
+    await helperPage.getByRole("button", { name: "Join the farm" }).click();
+    await helperPage.getByText("Use at least 10 characters").waitFor();
+    await shoot(helperPage, "accounts-invite-accept");
+    await helperPage.getByLabel("Choose a password").fill("sphagnum and sand");
+    await helperPage.getByRole("button", { name: "Join the farm" }).click();
+    await helperPage.waitForURL(/\/today/);
+    const me = await helperPage.evaluate(() => fetch("/api/me").then((r) => r.json()));
+    expect(me).toMatchObject({ role: "helper", user: { name: "Moss Fenwick" }, farm: { name: "Bramblewick Native Nursery" } });
+  });
+
+  it("works once: the same link cannot be used again", async () => {
+    const third = await phoneContext(browser, app.origin);
+    const page = await third.newPage();
+    await page.goto(inviteLink);
+    await page.getByRole("heading", { name: "This invite cannot be used" }).waitFor();
+    expect(await page.getByText("already been used").count()).toBe(1);
+    await third.close();
+  });
+
+  it("limits the Helper to what a Helper may do: no team changes, and the Team page offers none", async () => {
+    const tries = await helperPage.evaluate(async () => {
+      const post = (url: string, body: unknown) =>
+        fetch(url, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body) }).then((r) => r.status);
+      return {
+        invite: await post("/api/invites", { email: "someone@example.test", role: "owner" }),
+        farmUpdate: await post("/api/sync/push", { deviceId: "helper-phone", mutations: [{ id: crypto.randomUUID(), name: "farm.update", args: { name: "Mine now" }, at: new Date().toISOString() }] }).then(
+          () => fetch("/api/me").then((r) => r.json()).then((m) => m.farm.name),
+        ),
+      };
+    });
+    expect(tries.invite).toBe(403);
+    expect(tries.farmUpdate).toBe("Bramblewick Native Nursery");
+
+    await helperPage.goto("/team");
+    await helperPage.getByText("Moss Fenwick").waitFor();
+    expect(await helperPage.getByRole("button", { name: "Send invite" }).count()).toBe(0);
+    expect(await helperPage.getByRole("combobox").count()).toBe(0);
+    expect(await helperPage.getByText("Only an Owner can change the team.").count()).toBe(1);
+    await shoot(helperPage, "accounts-team-helper");
+  });
+
+  it("refuses a cross-origin POST even with the Owner's cookie", async () => {
+    const cookie = (await owner.cookies()).find((c) => c.name === "rimebook_session")!;
+    const res = await fetch(`${app.origin}/api/invites`, {
+      method: "POST",
+      headers: { cookie: `rimebook_session=${cookie.value}`, origin: "https://elsewhere.example", "content-type": "application/json" },
+      body: JSON.stringify({ email: "x@example.test", role: "owner" }),
+    });
+    expect(res.status).toBe(403);
+  });
+
+  it("signs the Helper out, refuses a wrong password in words, and signs in again", async () => {
+    await helperPage.getByRole("button", { name: "Sign out on this phone" }).click();
+    await helperPage.waitForURL(/\/sign-in/);
+    await helperPage.getByLabel("E-mail").fill("moss@bramblewick.example");
+    await helperPage.getByLabel("Password", { exact: true }).fill("not the password");
+    await helperPage.getByRole("button", { name: "Sign in" }).click();
+    await helperPage.getByText("That e-mail and password do not match an account.").waitFor();
+    await helperPage.getByLabel("Password", { exact: true }).fill("sphagnum and sand");
+    await helperPage.getByRole("button", { name: "Sign in" }).click();
+    await helperPage.waitForURL(/\/today/);
+  });
+
+  it("logged no unexpected errors on the Owner's pages", () => {
+    expect(unexpected(ownerErrors)).toEqual([]);
+  });
+});
