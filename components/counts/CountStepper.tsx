@@ -8,6 +8,7 @@ import { Field, Input } from "@/components/ui/Field";
 import { describeSaveError } from "@/components/bags/save-error";
 import { formatShortDay as formatDay } from "@/components/bags/format-day";
 import { findStartingTotal, judgeCountEntry, stepTotal, type DailyTotal } from "./count-series";
+import { Notice } from "@/components/season/Notice";
 
 /** Big −/+ steppers for the running total of seedlings up on a day; saves on the phone (works with no signal). */
 export function CountStepper({ sowing, totals, today, canCount }: { sowing: Sowing; totals: DailyTotal[]; today: string; canCount: boolean }) {
@@ -90,11 +91,7 @@ export function CountStepper({ sowing, totals, today, canCount }: { sowing: Sowi
       <Button size="lg" tone="good" className="w-full" disabled={!verdict.ok || !changed || busy} onClick={() => void save()}>
         Save {value} up on {formatDay(day)}
       </Button>
-      {message ? (
-        <p role={message.ok ? "status" : "alert"} className={`text-label font-medium ${message.ok ? "text-moss-700" : "text-ember-700"}`}>
-          {message.text}
-        </p>
-      ) : null}
+      {message ? <Notice ok={message.ok}>{message.text}</Notice> : null}
     </div>
   );
 }

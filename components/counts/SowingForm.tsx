@@ -10,6 +10,7 @@ import { pullBag, recordSowing } from "@/lib/client/repo";
 import { Button } from "@/components/ui/Button";
 import { Field, Input, TextArea } from "@/components/ui/Field";
 import { describeSaveError } from "@/components/bags/save-error";
+import { Notice } from "@/components/season/Notice";
 
 const SowingFormSchema = SowingInput.pick({ sown_on: true, tray: true, cells: true, seeds_sown: true, note: true });
 type SowingFormValues = z.input<typeof SowingFormSchema>;
@@ -67,11 +68,7 @@ export function SowingForm({ bag, today, onDone }: { bag: Pick<Bag, "id" | "seed
       <Field label="Note" htmlFor={`${id}-note`} error={errors.note?.message}>
         <TextArea id={`${id}-note`} rows={2} {...register("note")} />
       </Field>
-      {saveError ? (
-        <p role="alert" className="text-label font-medium text-ember-700">
-          {saveError}
-        </p>
-      ) : null}
+      <Notice>{saveError}</Notice>
       <Button type="submit" size="lg" className="w-full" disabled={isSubmitting}>
         {bag.pulled_on ? "Record sowing" : "Pull and record sowing"}
       </Button>

@@ -1,7 +1,7 @@
 "use client";
 
 import { useState } from "react";
-import { useForm } from "react-hook-form";
+import { Controller, useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { z } from "zod";
 import type { PlanItem } from "@/lib/schemas/plan";
@@ -9,9 +9,20 @@ import type { Lot } from "@/lib/schemas/lot";
 import type { ProtocolRow } from "@/lib/client/db";
 import { savePlanItem } from "@/lib/client/repo";
 import { Button } from "@/components/ui/Button";
+import { Segmented } from "@/components/ui/Segmented";
 import { Field, Input, Select, TextArea } from "@/components/ui/Field";
 import { describeSaveError } from "@/components/bags/save-error";
 import { PlanForm, planFormToItem, planItemToForm, type PlanFormValues } from "./plan-form";
+import { Notice } from "@/components/season/Notice";
+
+const anchorOptions = [
+  { value: "frost", label: "The last frost" },
+  { value: "date", label: "A set date" },
+] as const;
+const placeOptions = [
+  { value: "indoor", label: "Indoors (trays)" },
+  { value: "outdoor", label: "Outdoors" },
+] as const;
 
 const numberOrNull = (v: unknown) => (v === "" || v === null || v === undefined ? null : Number(String(v).replace("−", "-").replace(",", ".")));
 
@@ -34,6 +45,7 @@ export function PlanItemForm({
     handleSubmit,
     watch,
     setValue,
+    control,
     formState: { errors, isSubmitting },
   } = useForm<PlanFormValues, unknown, z.output<typeof PlanForm>>({ resolver: zodResolver(PlanForm), defaultValues: planItemToForm(item) });
   const anchor = watch("anchor");
@@ -103,19 +115,13 @@ export function PlanItemForm({
       </Field>
       <fieldset className="space-y-2">
         <legend className="text-label font-semibold text-ink">Sowing</legend>
-        <div className="grid grid-cols-2 gap-2">
-          {(
-            [
-              ["frost", "From the frost date"],
-              ["date", "On a set date"],
-            ] as const
-          ).map(([v, label]) => (
-            <label key={v} className="flex min-h-tap items-center gap-2 rounded-xl border-2 border-rime-300 bg-white px-3 text-label font-semibold has-[:checked]:border-glacier-700 has-[:checked]:bg-rime-100">
-              <input type="radio" value={v} className="h-5 w-5 accent-glacier-700" {...register("anchor")} />
-              {label}
-            </label>
-          ))}
-        </div>
+        <Controller
+          control={control}
+          name="anchor"
+          render={({ field }) => (
+            <Segmented legend="Counted from" name={`plan-anchor-${id}`} options={anchorOptions} value={field.value} onChange={field.onChange} />
+          )}
+        />
         {anchor === "frost" ? (
           <Field label="Weeks from the last frost" htmlFor={`plan-weeks-${id}`} hint="Negative is before the frost: −6 sows six weeks before." error={errors.weeks?.message}>
             <Input id={`plan-weeks-${id}`} inputMode="numeric" aria-invalid={!!errors.weeks} {...register("weeks", { setValueAs: numberOrNull })} />
@@ -125,19 +131,11 @@ export function PlanItemForm({
             <Input id={`plan-date-${id}`} type="date" aria-invalid={!!errors.date} {...register("date")} />
           </Field>
         )}
-        <div className="grid grid-cols-2 gap-2">
-          {(
-            [
-              ["indoor", "Indoors (trays)"],
-              ["outdoor", "Outdoors"],
-            ] as const
-          ).map(([v, label]) => (
-            <label key={v} className="flex min-h-tap items-center gap-2 rounded-xl border-2 border-rime-300 bg-white px-3 text-label font-semibold has-[:checked]:border-glacier-700 has-[:checked]:bg-rime-100">
-              <input type="radio" value={v} className="h-5 w-5 accent-glacier-700" {...register("place")} />
-              {label}
-            </label>
-          ))}
-        </div>
+        <Controller
+          control={control}
+          name="place"
+          render={({ field }) => <Segmented legend="Where" name={`plan-place-${id}`} options={placeOptions} value={field.value} onChange={field.onChange} />}
+        />
       </fieldset>
       <div className="grid grid-cols-2 gap-3">
         <Field label="Expected germination %" htmlFor={`plan-germ-${id}`} hint="Empty: the farm's own record." error={errors.germinationPct?.message}>
@@ -150,11 +148,7 @@ export function PlanItemForm({
       <Field label="Note" htmlFor={`plan-note-${id}`} error={errors.note?.message}>
         <TextArea id={`plan-note-${id}`} rows={2} {...register("note", { setValueAs: (v) => v || null })} />
       </Field>
-      {saveError ? (
-        <p role="alert" className="text-label font-medium text-ember-700">
-          {saveError}
-        </p>
-      ) : null}
+      <Notice>{saveError}</Notice>
       <div className="flex gap-3">
         <Button type="submit" className="flex-1" disabled={isSubmitting}>
           {item ? "Save plan row" : "Add to the plan"}

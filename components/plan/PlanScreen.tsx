@@ -15,6 +15,7 @@ import type { Sowing } from "@/lib/schemas/sowing";
 import type { Count } from "@/lib/schemas/count";
 import { Button, buttonClass } from "@/components/ui/Button";
 import { Card, PageHeader } from "@/components/ui/Card";
+import { Chip } from "@/components/ui/Chip";
 import { formatLongDay } from "@/components/bags/format-day";
 import { useToday } from "@/components/bags/use-farm-rows";
 import { describeSaveError } from "@/components/bags/save-error";
@@ -25,6 +26,7 @@ import { layOutTimeline } from "./timeline";
 import { PlanItemForm } from "./PlanItemForm";
 import { SeasonTimeline } from "./SeasonTimeline";
 import { StartBagForm } from "./StartBagForm";
+import { Notice } from "@/components/season/Notice";
 
 /** The season a plan is made for: next year's once the summer is past. */
 export function pickDefaultSeason(today: string): number {
@@ -100,15 +102,9 @@ export function PlanScreen() {
       ) : null}
       <div role="group" aria-label="Season" className="flex flex-wrap gap-2">
         {seasons.map((s) => (
-          <button
-            key={s}
-            type="button"
-            aria-pressed={s === chosen}
-            onClick={() => setSeason(s)}
-            className={`min-h-tap rounded-xl px-4 font-semibold ${s === chosen ? "bg-glacier-700 text-white" : "bg-white text-ink ring-1 ring-rime-300"}`}
-          >
+          <Chip key={s} pressed={s === chosen} onClick={() => setSeason(s)}>
             {s}
-          </button>
+          </Chip>
         ))}
       </div>
       {adding && rows ? (
@@ -258,11 +254,7 @@ function PlanRowCard({
         </ul>
       ) : null}
       {protocol ? <p className="text-label text-ink-soft">Protocol: {protocol.species}{protocol.is_farm_own ? " (farm's own)" : ""}</p> : null}
-      {error ? (
-        <p role="alert" className="text-label font-medium text-ember-700">
-          {error}
-        </p>
-      ) : null}
+      <Notice>{error}</Notice>
       {mode === "start" && lot ? (
         <StartBagForm
           item={item}

@@ -16,6 +16,7 @@ import { BagCautions } from "@/components/bags/BagCautions";
 import { fillPullWindow, generateUniqueBagCode, pickDefaultStore } from "@/components/bags/new-bag-defaults";
 import { describeSaveError } from "@/components/bags/save-error";
 import { pickBagCautions } from "@/components/check/bag-cautions";
+import { Notice } from "@/components/season/Notice";
 
 /** The stored plan row as plan.upsert takes it (server-stamped columns dropped). */
 export function toPlanInput(item: PlanItem) {
@@ -149,11 +150,7 @@ export function StartBagForm({
         </Field>
       </div>
       <BagCautions cautions={cautions} />
-      {error ? (
-        <p role="alert" className="text-label font-medium text-ember-700">
-          {error}
-        </p>
-      ) : null}
+      <Notice>{error}</Notice>
       <div className="flex gap-2">
         <Button className="flex-1" disabled={busy} onClick={() => void start()}>
           Start bag today

@@ -12,10 +12,12 @@ import { vocabularyLabels } from "@/lib/schemas/vocabulary";
 import { Button } from "@/components/ui/Button";
 import { Card, PageHeader } from "@/components/ui/Card";
 import { Field, Input, Select } from "@/components/ui/Field";
+import { Segmented } from "@/components/ui/Segmented";
 import { SessionActions } from "@/components/team/SessionActions";
 import { describeSaveError } from "@/components/bags/save-error";
 import { useMember } from "@/components/season/use-member";
 import { countDaysInMonth, describeMonthDay, joinMonthDay, monthNames, splitMonthDay } from "./frost-date";
+import { Notice } from "@/components/season/Notice";
 
 const FarmForm = FarmSettings.pick({ name: true, last_frost_date: true, location_note: true, temperature_unit: true, weekly_check_days: true, timezone: true });
 type FarmFormValues = z.input<typeof FarmForm>;
@@ -124,11 +126,7 @@ function FarmCard({ farm, canEdit }: { farm: NonNullable<ReturnType<typeof useMe
                   <p className="text-label text-ink-soft">
                     {frost ? `${frost}: the season plan counts sowing dates from here.` : "The season plan counts sowing dates from this day; your extension service or local growers know it."}
                   </p>
-                  {errors.last_frost_date ? (
-                    <p role="alert" className="text-label font-medium text-ember-700">
-                      {errors.last_frost_date.message}
-                    </p>
-                  ) : null}
+                  <Notice>{errors.last_frost_date?.message}</Notice>
                 </fieldset>
               );
             }}
@@ -136,16 +134,22 @@ function FarmCard({ farm, canEdit }: { farm: NonNullable<ReturnType<typeof useMe
           <Field label="Where the farm is" htmlFor="farm-location" hint="A note for the team, e.g. valley floor, frost pocket." error={errors.location_note?.message}>
             <Input id="farm-location" {...register("location_note")} />
           </Field>
-          <fieldset className="space-y-1">
-            <legend className="text-label font-semibold text-ink">Temperatures in</legend>
-            <div className="grid grid-cols-2 gap-2">
-              {(["C", "F"] as const).map((u) => (
-                <label key={u} className="flex min-h-tap items-center justify-center gap-2 rounded-xl border-2 border-rime-300 bg-white px-3 text-body font-semibold has-[:checked]:border-glacier-700 has-[:checked]:bg-rime-100">
-                  <input type="radio" value={u} className="h-5 w-5 accent-glacier-700" {...register("temperature_unit")} />°{u}
-                </label>
-              ))}
-            </div>
-          </fieldset>
+          <Controller
+            control={control}
+            name="temperature_unit"
+            render={({ field }) => (
+              <Segmented
+                legend="Temperatures in"
+                name="farm-unit"
+                options={[
+                  { value: "C", label: "°C" },
+                  { value: "F", label: "°F" },
+                ]}
+                value={field.value ?? "C"}
+                onChange={field.onChange}
+              />
+            )}
+          />
           <Field label="Days between checks while chilling" htmlFor="farm-weekly" hint="Daily checks start when a pull window opens." error={errors.weekly_check_days?.message}>
             <Input id="farm-weekly" inputMode="numeric" aria-invalid={!!errors.weekly_check_days} {...register("weekly_check_days", { setValueAs: (v) => (v === "" ? undefined : Number(v)) })} />
           </Field>
@@ -159,16 +163,8 @@ function FarmCard({ farm, canEdit }: { farm: NonNullable<ReturnType<typeof useMe
             </Select>
           </Field>
         </fieldset>
-        {saveError ? (
-          <p role="alert" className="text-label font-medium text-ember-700">
-            {saveError}
-          </p>
-        ) : null}
-        {saved ? (
-          <p role="status" className="text-label font-medium text-moss-700">
-            {saved}
-          </p>
-        ) : null}
+        <Notice>{saveError}</Notice>
+        <Notice ok>{saved}</Notice>
         {canEdit ? (
           <Button type="submit" className="w-full" disabled={isSubmitting || !isDirty}>
             Save farm settings
@@ -211,11 +207,7 @@ function DigestCard({ userId, email }: { userId: string; email: string }) {
         />
       </label>
       {membership === null ? <p className="mt-2 text-label text-ink-soft">Your membership has not synced to this phone yet.</p> : null}
-      {error ? (
-        <p role="alert" className="mt-2 text-label font-medium text-ember-700">
-          {error}
-        </p>
-      ) : null}
+      <Notice>{error}</Notice>
     </Card>
   );
 }

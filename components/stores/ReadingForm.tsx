@@ -11,6 +11,7 @@ import { recordReading } from "@/lib/client/repo";
 import { Button } from "@/components/ui/Button";
 import { Field, Input } from "@/components/ui/Field";
 import { describeSaveError } from "@/components/bags/save-error";
+import { Notice } from "@/components/season/Notice";
 
 // What the grower types: a temperature in words ("4", "39 °F", "−18") and a local date-time.
 const ReadingForm = z.object({
@@ -68,16 +69,8 @@ export function ReadingEntry({ storeId, unit }: { storeId: string; unit: Tempera
           <Input id="reading-at" type="datetime-local" aria-invalid={!!errors.takenAt} {...register("takenAt")} />
         </Field>
       </div>
-      {errors.root ? (
-        <p role="alert" className="text-label font-medium text-ember-700">
-          {errors.root.message}
-        </p>
-      ) : null}
-      {saved ? (
-        <p role="status" className="text-label font-medium text-moss-700">
-          {saved}
-        </p>
-      ) : null}
+      <Notice>{errors.root?.message}</Notice>
+      <Notice ok>{saved}</Notice>
       <Button type="submit" disabled={isSubmitting} className="w-full">
         Save reading
       </Button>

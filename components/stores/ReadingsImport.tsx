@@ -10,6 +10,7 @@ import { Field, Select } from "@/components/ui/Field";
 import { getSyncEngine } from "@/lib/client/sync";
 import { useOnline } from "@/lib/client/hooks";
 import { ImportRowReport } from "./ImportRowReport";
+import { Notice } from "@/components/season/Notice";
 
 type Order = "auto" | "dmy" | "mdy";
 type UnitChoice = "file" | TemperatureUnit;
@@ -132,11 +133,7 @@ export function ReadingsImport({ storeId, farmUnit, timeZone }: { storeId: strin
           onChange={(e) => void pick(e.target.files?.[0] ?? null)}
         />
       </Field>
-      {fileProblem ? (
-        <p role="alert" className="text-label font-medium text-ember-700">
-          {fileProblem}
-        </p>
-      ) : null}
+      <Notice>{fileProblem}</Notice>
       {preview ? (
         <section aria-label="Preview" className="space-y-3 rounded-xl bg-rime-50 p-3">
           <div className="grid grid-cols-2 gap-3">

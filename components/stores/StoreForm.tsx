@@ -11,6 +11,7 @@ import { Caution, cautionTexts } from "@/components/ui/Caution";
 import { Field, Input, Select, TextArea } from "@/components/ui/Field";
 import { describeSaveError } from "@/components/bags/save-error";
 import { useState } from "react";
+import { Notice } from "@/components/season/Notice";
 
 // Boxes are typed one per line; the shared schema still checks each one.
 const StoreFormSchema = StoreInput.omit({ id: true, boxes: true }).extend({ boxesText: z.string().max(6000) });
@@ -87,11 +88,7 @@ export function StoreForm({ store, onDone }: { store?: Store; onDone: (id: strin
       <Field label="Notes" htmlFor={`store-notes-${id}`} error={errors.notes?.message}>
         <TextArea id={`store-notes-${id}`} rows={2} {...register("notes")} />
       </Field>
-      {saveError ? (
-        <p role="alert" className="text-label font-medium text-ember-700">
-          {saveError}
-        </p>
-      ) : null}
+      <Notice>{saveError}</Notice>
       <div className="flex gap-3">
         <Button type="submit" disabled={isSubmitting} className="flex-1">
           {store ? "Save changes" : "Add cold store"}

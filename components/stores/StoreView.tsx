@@ -9,6 +9,7 @@ import { getLocalDb } from "@/lib/client/db";
 import { determineBagState, formatBagCode, formatTemperature } from "@/lib/domain";
 import { vocabularyLabels } from "@/lib/schemas/vocabulary";
 import { Button } from "@/components/ui/Button";
+import { Segmented } from "@/components/ui/Segmented";
 import { Card, PageHeader } from "@/components/ui/Card";
 import { Caution, cautionTexts } from "@/components/ui/Caution";
 import { StateBadge } from "@/components/ui/StateBadge";
@@ -102,19 +103,7 @@ export function StoreView() {
       <Card>
         <h2 className="text-body font-bold text-glacier-800">Readings</h2>
         <div className="mb-3 mt-2">
-          <div role="group" aria-label="Period" className="grid grid-cols-4 gap-1">
-            {ranges.map((r) => (
-              <button
-                key={r.key}
-                type="button"
-                aria-pressed={range === r.key}
-                onClick={() => setRange(r.key)}
-                className={`min-h-tap rounded-lg px-2 text-label font-semibold ${range === r.key ? "bg-glacier-700 text-white" : "bg-rime-100 text-ink"}`}
-              >
-                {r.label}
-              </button>
-            ))}
-          </div>
+          <Segmented legend="Period" name="readings-period" options={ranges.map((r) => ({ value: r.key, label: r.label }))} value={range} onChange={setRange} />
         </div>
         <ReadingsChart points={points} band={band} unit={unit} excursions={exposure?.excursions ?? []} />
         {exposure ? (

@@ -10,6 +10,7 @@ import { createTrial } from "@/lib/client/repo";
 import { Button } from "@/components/ui/Button";
 import { Field, Input, Select, TextArea } from "@/components/ui/Field";
 import { describeSaveError } from "@/components/bags/save-error";
+import { Notice } from "@/components/season/Notice";
 
 // The shared trial schema without ids (the phone makes them); arms as label + treatment.
 export const TrialForm = TrialInput.omit({ id: true, notes: true }).extend({
@@ -96,11 +97,7 @@ export function NewTrialForm({ lots, onDone }: { lots: readonly Lot[]; onDone: (
           </Button>
         ) : null}
       </fieldset>
-      {saveError ? (
-        <p role="alert" className="text-label font-medium text-ember-700">
-          {saveError}
-        </p>
-      ) : null}
+      <Notice>{saveError}</Notice>
       <div className="flex gap-3">
         <Button type="submit" className="flex-1" disabled={isSubmitting}>
           Create trial

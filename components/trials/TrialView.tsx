@@ -19,6 +19,7 @@ import { useToday } from "@/components/bags/use-farm-rows";
 import { useMember } from "@/components/season/use-member";
 import { assembleTrialTable, buildTrialProtocol } from "./trial-table";
 import { ComparisonTable } from "./ComparisonTable";
+import { Notice } from "@/components/season/Notice";
 
 const verdictLook = {
   clear_difference: "border-moss-600 bg-moss-100",
@@ -166,11 +167,7 @@ export function TrialView() {
           ) : (
             <p className="text-label text-ink-soft">No arm has clearly won yet, so there is nothing to copy. One trial is a hint; repeat it with more seed before changing the protocol.</p>
           )}
-          {message ? (
-            <p role={message.ok ? "status" : "alert"} className={`text-label font-medium ${message.ok ? "text-moss-700" : "text-ember-700"}`}>
-              {message.text}
-            </p>
-          ) : null}
+          {message ? <Notice ok={message.ok}>{message.text}</Notice> : null}
         </Card>
       ) : null}
 
