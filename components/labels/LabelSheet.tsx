@@ -183,10 +183,10 @@ function printCss(size: LabelSize): string {
 .label-page-small, .label-page-large { width: ${s.widthMm}mm; height: ${s.heightMm}mm; margin-bottom: 4mm; }
 .bag-label { width: ${s.widthMm}mm; height: ${s.heightMm}mm; box-sizing: border-box; overflow: hidden; display: flex; gap: 1.5mm; align-items: center;
   padding: ${size === "small" ? "1mm" : "2mm"}; break-inside: avoid; page-break-inside: avoid; outline: 1px dashed #a9c3cf; outline-offset: -1px; }
-.bag-label-qr { flex: none; height: 100%; width: auto; aspect-ratio: 1; }
+.bag-label-qr { flex: none; height: ${size === "a4" ? "78%" : "100%"}; width: auto; aspect-ratio: 1; }
 .bag-label-text { min-width: 0; flex: 1; line-height: 1.15; }
 .bag-label-code { font-family: ui-monospace, "SFMono-Regular", Menlo, Consolas, monospace; font-weight: 800; letter-spacing: 0.04em;
-  font-size: ${size === "large" ? "24pt" : size === "a4" ? "15pt" : "12pt"}; white-space: nowrap; }
+  font-size: ${size === "large" ? "24pt" : size === "a4" ? "13pt" : "11pt"}; white-space: nowrap; }
 .bag-label-species { font-weight: 700; font-size: ${size === "large" ? "11pt" : "7.5pt"}; overflow: hidden; text-overflow: ellipsis; white-space: nowrap; }
 .bag-label-species { font-style: normal; }
 .bag-label-common { font-weight: 500; }

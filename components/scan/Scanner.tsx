@@ -9,7 +9,6 @@ import { getLocalDb } from "@/lib/client/db";
 import { loadFarmFetched } from "@/lib/client/fridge-reads";
 import { formatBagCode, normalizeCrockford } from "@/lib/domain/bag-codes";
 import { Button } from "@/components/ui/Button";
-import { Card } from "@/components/ui/Card";
 import { Field, Input } from "@/components/ui/Field";
 import { classifyCameraError, describeCameraTrouble, type CameraTroubleText } from "./camera-trouble";
 import { indexFarmCodes, lookUpScannedText, lookUpTypedCode, type CodeLookup, type FarmCodes } from "./code-entry";
@@ -27,7 +26,7 @@ export function Scanner() {
   const controlsRef = useRef<IScannerControls | null>(null);
   const [camera, setCamera] = useState<CameraState>({ status: "starting" });
   const [torch, setTorch] = useState({ available: false, on: false });
-  const [notice, setNotice] = useState<string | null>(null);
+  const [notice, setNotice] = useState<{ text: string; calm?: boolean } | null>(null);
   const [typed, setTyped] = useState("");
   const [typedResult, setTypedResult] = useState<CodeLookup | null>(null);
 
@@ -58,14 +57,14 @@ export function Scanner() {
       const justSaved = justSavedRef.current;
       if (result.kind === "found" && result.code === justSaved.code) {
         justSaved.seenAt = Date.now();
-        if (lastTextRef.current !== text) setNotice(`${formatBagCode(result.code)} was just saved. Point the camera at the next label.`);
+        if (lastTextRef.current !== text) setNotice({ text: `${formatBagCode(result.code)} was just saved. Point the camera at the next label.`, calm: true });
         lastTextRef.current = text;
         return;
       }
       if (result.kind === "found") return openBag(result.bagId);
       if (text === lastTextRef.current) return;
       lastTextRef.current = text;
-      setNotice(result.message);
+      setNotice({ text: result.message });
     },
     [openBag],
   );
@@ -122,7 +121,7 @@ export function Scanner() {
       setTorch({ available: true, on: next });
     } catch {
       setTorch({ available: false, on: false });
-      setNotice("The light could not be switched on for this camera.");
+      setNotice({ text: "The light could not be switched on for this camera." });
     }
   }
 
@@ -167,10 +166,10 @@ export function Scanner() {
       </div>
 
       {camera.status === "trouble" ? (
-        <Card className="border-wheat-600 bg-wheat-100" role="alert" data-testid="camera-trouble">
+        <div className="rounded-card border-l-4 border-wheat-600 bg-wheat-100 p-4" role="alert" data-testid="camera-trouble">
           <p className="font-semibold text-ink">{camera.trouble.title}</p>
           <p className="text-label text-ink">{camera.trouble.text}</p>
-        </Card>
+        </div>
       ) : null}
 
       {torch.available ? (
@@ -179,8 +178,12 @@ export function Scanner() {
         </Button>
       ) : null}
 
-      <p aria-live="polite" className={notice ? "rounded-card bg-ember-100 p-3 font-semibold text-ember-700" : "sr-only"} data-testid="scan-notice">
-        {notice ?? ""}
+      <p
+        aria-live="polite"
+        className={notice ? `rounded-card p-3 font-semibold ${notice.calm ? "bg-rime-100 text-glacier-800" : "bg-ember-100 text-ember-700"}` : "sr-only"}
+        data-testid="scan-notice"
+      >
+        {notice?.text ?? ""}
       </p>
 
       <form
