@@ -11,6 +11,7 @@ import { Caution, cautionTexts } from "@/components/ui/Caution";
 import { Field, Input, TextArea } from "@/components/ui/Field";
 import { BagEditForm } from "./BagEditForm";
 import { describeSaveError } from "./save-error";
+import { SaveError } from "./FormBits";
 
 type Panel = "pull" | "discard" | "edit" | null;
 
@@ -122,11 +123,7 @@ export function BagActions({ bag, state, stores, today, can }: { bag: Bag; state
         </section>
       ) : null}
 
-      {error ? (
-        <p role="alert" className="rounded-card bg-ember-100 p-3 text-body text-ember-700">
-          {error}
-        </p>
-      ) : null}
+      <SaveError message={error} />
     </div>
   );
 }

@@ -6,17 +6,17 @@ import type { z } from "zod";
 import { useEffect, useRef, useState } from "react";
 import { BagPatch, type Bag } from "@/lib/schemas/bag";
 import type { Store } from "@/lib/schemas/store";
-import { media, vocabularyLabels } from "@/lib/schemas/vocabulary";
 import { updateBag } from "@/lib/client/repo";
 import { Button } from "@/components/ui/Button";
 import { Field, Input, Select, TextArea } from "@/components/ui/Field";
 import { describeSaveError } from "./save-error";
+import { emptyToNull, pickChanged } from "./form-values";
+import { MediumOptions } from "./FormBits";
 
 // Edit what can change on a bag in the fridge: where it is and what it sits in, and the note.
 const EditFields = BagPatch.pick({ store_id: true, box: true, medium: true, note: true });
 type EditIn = z.input<typeof EditFields>;
 type EditOut = z.output<typeof EditFields>;
-const emptyToNull = (v: unknown) => (v === "" || v === undefined ? null : v);
 
 export function BagEditForm({ bag, stores, onDone }: { bag: Bag; stores: readonly Store[]; onDone: () => void }) {
   const [error, setError] = useState<string | null>(null);
@@ -42,7 +42,7 @@ export function BagEditForm({ bag, stores, onDone }: { bag: Bag; stores: readonl
   const onSubmit = handleSubmit(async (v) => {
     setError(null);
     // Send only what changed, so an edit never overwrites a field someone else changed meanwhile.
-    const patch = Object.fromEntries(Object.entries(v).filter(([k]) => dirtyFields[k as keyof EditIn]));
+    const patch = pickChanged(v, dirtyFields);
     if (Object.keys(patch).length === 0) return onDone();
     try {
       await updateBag(bag.id, patch);
@@ -81,11 +81,7 @@ export function BagEditForm({ bag, stores, onDone }: { bag: Bag; stores: readonl
       </Field>
       <Field label="Medium" htmlFor="edit-medium" error={errors.medium?.message}>
         <Select id="edit-medium" {...register("medium")}>
-          {media.map((m) => (
-            <option key={m} value={m}>
-              {vocabularyLabels.medium[m]}
-            </option>
-          ))}
+          <MediumOptions />
         </Select>
       </Field>
       <Field label="Note" htmlFor="edit-note" error={errors.note?.message}>

@@ -7,7 +7,7 @@ import { useForm, useWatch } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { z } from "zod";
 import { BagInput } from "@/lib/schemas/bag";
-import { media, vocabularyLabels } from "@/lib/schemas/vocabulary";
+import { vocabularyLabels } from "@/lib/schemas/vocabulary";
 import { createBag } from "@/lib/client/repo";
 import { formatBagCode, reconcileProtocol } from "@/lib/domain";
 import type { Lot } from "@/lib/schemas/lot";
@@ -24,6 +24,8 @@ import { formatLongDay } from "./format-day";
 import { describeSaveError } from "./save-error";
 import { useBagSources, useToday } from "./use-farm-rows";
 import { sortLots } from "@/components/lots/lot-use";
+import { emptyToNull, numberOrNull } from "./form-values";
+import { SaveError, MediumOptions } from "./FormBits";
 
 // The bag form uses the shared Bag schema (BagInput), with one extra choice: does the bag go in today or later.
 const NewBagFields = BagInput.pick({
@@ -51,8 +53,6 @@ const NewBagFields = BagInput.pick({
 type FormIn = z.input<typeof NewBagFields>;
 type FormOut = z.output<typeof NewBagFields>;
 
-const emptyToNull = (v: unknown) => (v === "" || v === undefined ? null : v);
-const numberOrNull = (v: unknown) => (v === "" || v === null || v === undefined ? null : Number(v));
 
 function randomBytes() {
   return crypto.getRandomValues(new Uint8Array(8));
@@ -316,11 +316,7 @@ function NewBagFormBody({ sources, today, initialLotId }: { sources: BagRowSourc
         <div className="grid grid-cols-2 gap-3">
           <Field label="Medium" htmlFor="medium" error={err("medium")}>
             <Select id="medium" {...register("medium")}>
-              {media.map((m) => (
-                <option key={m} value={m}>
-                  {vocabularyLabels.medium[m]}
-                </option>
-              ))}
+              <MediumOptions />
             </Select>
           </Field>
           <Field label="Seeds in the bag" htmlFor="seed_count" error={err("seed_count")}>
@@ -346,11 +342,7 @@ function NewBagFormBody({ sources, today, initialLotId }: { sources: BagRowSourc
 
       <BagCautions cautions={cautions} />
 
-      {saveError ? (
-        <p role="alert" className="rounded-card bg-ember-100 p-3 text-body text-ember-700">
-          {saveError}
-        </p>
-      ) : null}
+      <SaveError message={saveError} />
       <Button type="submit" size="lg" className="w-full" disabled={isSubmitting}>
         {isSubmitting ? "Saving…" : "Save bag"}
       </Button>

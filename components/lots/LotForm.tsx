@@ -17,14 +17,14 @@ import { useMember } from "@/components/season/use-member";
 import { useBagSources } from "@/components/bags/use-farm-rows";
 import { describeSaveError } from "@/components/bags/save-error";
 import { matchProtocolBySpecies } from "@/components/protocols/protocol-row";
+import { emptyToNull, numberOrNull, pickChanged } from "@/components/bags/form-values";
+import { SaveError } from "@/components/bags/FormBits";
 
 // Add or edit a seed lot with the shared Lot schema (the id is made on the phone for a new lot).
 const LotFields = LotInput.omit({ id: true });
 type LotIn = z.input<typeof LotFields>;
 type LotOut = z.output<typeof LotFields>;
 
-const emptyToNull = (v: unknown) => (typeof v === "string" && v.trim() === "" ? null : v ?? null);
-const numberOrNull = (v: unknown) => (v === "" || v === null || v === undefined ? null : Number(v));
 
 export function LotForm() {
   const id = useSearchParams().get("id");
@@ -82,7 +82,7 @@ function LotFormBody({ lot, protocols }: { lot: Lot | null; protocols: readonly 
     setError(null);
     try {
       if (lot) {
-        const patch = Object.fromEntries(Object.entries(v).filter(([k]) => dirtyFields[k as keyof LotIn]));
+        const patch = pickChanged(v, dirtyFields);
         if (Object.keys(patch).length) await updateLot(lot.id, patch);
       } else {
         await createLot(v);
@@ -147,11 +147,7 @@ function LotFormBody({ lot, protocols }: { lot: Lot | null; protocols: readonly 
           <TextArea id="notes" {...register("notes", { setValueAs: emptyToNull })} />
         </Field>
       </Card>
-      {error ? (
-        <p role="alert" className="rounded-card bg-ember-100 p-3 text-body text-ember-700">
-          {error}
-        </p>
-      ) : null}
+      <SaveError message={error} />
       <div className="flex gap-2">
         <Button type="submit" size="lg" className="flex-1" disabled={isSubmitting}>
           {lot ? "Save changes" : "Save lot"}

@@ -29,7 +29,7 @@ export function LotsList() {
         action={
           can("lot.create") ? (
             <Link href="/lots/edit" className={buttonClass("primary", "md")}>
-              <span aria-hidden="true">＋</span> New lot
+              <span aria-hidden="true">+</span> New lot
             </Link>
           ) : null
         }

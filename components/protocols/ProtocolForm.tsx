@@ -19,6 +19,8 @@ import { useMember } from "@/components/season/use-member";
 import { describeSaveError } from "@/components/bags/save-error";
 import { blankPhase, blankSource, fromFormValues, toFormValues, type ProtocolFormValues } from "./protocol-form-values";
 import { readProtocolRow } from "./protocol-row";
+import { numberOrNull } from "@/components/bags/form-values";
+import { SaveError } from "@/components/bags/FormBits";
 
 // Edit the farm's own protocol: phases (kind, note) each with sources (citation, min–max days, temperature band),
 // validated by the shared Protocol schema after blank number fields are read as "none".
@@ -28,7 +30,6 @@ const protocolResolver: Resolver<ProtocolFormValues, unknown, Protocol> = async 
   return (await check(fromFormValues(values), context, options as never)) as never;
 };
 
-const numberOrNull = (v: unknown) => (v === "" || v === null || v === undefined ? null : Number(v));
 
 export function ProtocolForm() {
   const id = useSearchParams().get("id");
@@ -115,13 +116,13 @@ function ProtocolFormBody({ row, back }: { row: ProtocolRow | null; back: string
         {errors.phases?.message ? <p className="text-label text-ember-700">{errors.phases.message}</p> : null}
         <div className="flex flex-wrap gap-2">
           <Button tone="secondary" onClick={() => phases.append(blankPhase("cold_moist"))}>
-            ＋ Cold-moist phase
+            + Cold-moist phase
           </Button>
           <Button tone="quiet" onClick={() => phases.append(blankPhase("warm_moist"))}>
-            ＋ Warm-moist phase
+            + Warm-moist phase
           </Button>
           <Button tone="quiet" onClick={() => phases.append({ ...blankPhase("scarify"), sources: [] })}>
-            ＋ Other step
+            + Other step
           </Button>
         </div>
 
@@ -163,11 +164,7 @@ function ProtocolFormBody({ row, back }: { row: ProtocolRow | null; back: string
           </Card>
         ) : null}
 
-        {error ? (
-          <p role="alert" className="rounded-card bg-ember-100 p-3 text-body text-ember-700">
-            {error}
-          </p>
-        ) : null}
+        <SaveError message={error} />
         {Object.keys(errors).length ? (
           <p role="alert" className="text-label font-semibold text-ember-700">
             Some fields need another look (marked in red).
@@ -275,7 +272,7 @@ function PhaseEditor({
       {pe?.sources?.root?.message ? <p className="text-label text-ember-700">{pe.sources.root.message}</p> : null}
       <div className="flex flex-wrap gap-2">
         <Button tone="secondary" onClick={() => sources.append(blankSource())}>
-          ＋ Source
+          + Source
         </Button>
         <Button tone="quiet" className="text-ember-700" onClick={onRemove}>
           Remove phase {index + 1}

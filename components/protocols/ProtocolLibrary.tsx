@@ -38,7 +38,7 @@ export function ProtocolLibrary() {
         action={
           can("protocol.upsert") ? (
             <Link href="/protocols/edit" className={buttonClass("primary", "md")}>
-              <span aria-hidden="true">＋</span> New
+              <span aria-hidden="true">+</span> New
             </Link>
           ) : null
         }

@@ -17,6 +17,7 @@ import { describeSaveError } from "@/components/bags/save-error";
 import { copyToFarmOwn } from "./protocol-form-values";
 import { findStarterFor, readProtocolRow } from "./protocol-row";
 import { OriginBadge } from "./OriginBadge";
+import { SaveError } from "@/components/bags/FormBits";
 
 export function describeDays(min: number, max: number | null): string {
   if (max === null) return `${min} days or more`;
@@ -143,11 +144,7 @@ function ProtocolDetail({ row }: { row: ProtocolRow }) {
           <Button tone={p.isFarmOwn ? "quiet" : "primary"} size={p.isFarmOwn ? "md" : "lg"} className="w-full" disabled={busy} onClick={copy}>
             {p.isFarmOwn ? "Make a copy" : "Copy to the farm's own"}
           </Button>
-          {error ? (
-            <p role="alert" className="rounded-card bg-ember-100 p-3 text-body text-ember-700">
-              {error}
-            </p>
-          ) : null}
+          <SaveError message={error} />
         </div>
       ) : null}
     </main>
