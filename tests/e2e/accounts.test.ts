@@ -143,6 +143,33 @@ describe("a farm and its team, in the browser", () => {
     await helperPage.waitForURL(/\/today/);
   });
 
+  it("resets a forgotten password by the e-mailed link, which then stops working", async () => {
+    const page = await (await phoneContext(browser, app.origin)).newPage();
+    await page.goto("/sign-in");
+    await page.getByRole("link", { name: "Forgot your password?" }).click();
+    await page.getByLabel("E-mail").fill("wren@bramblewick.example");
+    await page.getByRole("button", { name: "Send the link" }).click();
+    await page.getByText("a link to choose a new password is on its way").waitFor();
+
+    await page.goto("/dev/mailbox");
+    await page.getByText("Choose a new Rimebook password").first().waitFor();
+    const link = (await page.getByRole("link", { name: "Open reset link" }).first().getAttribute("href")) ?? "";
+    expect(link.startsWith(`${app.origin}/reset/`)).toBe(true);
+    await page.goto(link);
+    await page.getByLabel("New password", { exact: true }).fill("hazel catkins in march");
+    await page.getByRole("button", { name: "Save the new password" }).click();
+    await page.waitForURL(/\/today/);
+    // The Owner's other session (the first profile) ended with the reset.
+    expect(await ownerPage.evaluate(() => fetch("/api/me").then((r) => r.status))).toBe(401);
+
+    await page.goto(link);
+    await page.getByLabel("New password", { exact: true }).fill("another phrase entirely");
+    await page.getByRole("button", { name: "Save the new password" }).click();
+    await page.getByText("This link has already been used.").waitFor();
+    expect(await page.getByRole("link", { name: "Ask for a new link" }).count()).toBe(1);
+    await shoot(page, "accounts-reset-used");
+  });
+
   it("logged no unexpected errors on the Owner's pages", () => {
     expect(unexpected(ownerErrors)).toEqual([]);
   });
