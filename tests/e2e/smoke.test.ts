@@ -73,9 +73,7 @@ describe("production build", () => {
     await context.close();
   });
 
-  // Skipped 2026-12-02: /sign-in and /sign-up (accounts work, issue 4) and the app icons (sync work, issue 5)
-  // are not committed yet; unskip when they land.
-  it.skip("has no dead links or missing icons on the landing page", async () => {
+  it("has no dead links or missing icons on the landing page", async () => {
     const context = await phoneContext(browser, app.origin);
     const page = await context.newPage();
     const errors = watchErrors(page);

@@ -12,7 +12,7 @@ export const ARTIFACTS = path.join(ROOT, "artifacts", "e2e");
 
 // Everything that goes into the build. Generated service-worker files in public/ are outputs, not inputs.
 const SOURCES = ["app", "components", "lib", "sw", "public", "fonts", "db", "next.config.mjs", "security-headers.mjs", "postcss.config.mjs", "package-lock.json", "tsconfig.json"];
-const GENERATED = /^(sw\.js|swe-worker-.*\.js)(\.map)?$/;
+const GENERATED = /^(sw(-[a-z0-9]+)?\.js|swe-worker-.*\.js)(\.map)?$/;
 
 function newestMtime(p: string): number {
   let st: fs.Stats;
