@@ -174,4 +174,32 @@ describe("offline-first phone", () => {
     await vpage.screenshot({ path: path.join(ARTIFACTS, "offline-06-refused-details.png") }); // the dialog as the phone shows it
     await viewer.close();
   }, 120_000);
+
+  it("sign-out warns while work is unsent, then empties the phone store and the farm's caches", async () => {
+    await context.setOffline(true);
+    await page.evaluate(() => window.dispatchEvent(new Event("offline")));
+    const bag = readOne<{ id: string }>("SELECT id FROM bags WHERE start_date IS NOT NULL AND pulled_on IS NULL AND discarded_on IS NULL AND sown_on IS NULL ORDER BY code DESC LIMIT 1")!;
+    await page.goto(`/check?bag=${bag.id}`);
+    await page.getByTestId("all-good").click();
+    await page.waitForURL(/\/scan/);
+    await waitForPill(page, /1 waiting/);
+    await page.getByRole("button", { name: "More" }).click();
+    await page.getByRole("button", { name: "Sign out of this phone" }).click();
+    await page.getByRole("alert").getByText("Not everything is sent yet").waitFor();
+    await page.screenshot({ path: path.join(ARTIFACTS, "offline-07-sign-out-warning.png") });
+    await page.getByRole("button", { name: "Sign out anyway" }).click();
+    await page.waitForURL(/\/sign-in/);
+    const left = await page.evaluate(async () => {
+      const open = indexedDB.open("rimebook");
+      const db: IDBDatabase = await new Promise((r) => (open.onsuccess = () => r(open.result)));
+      const count = (store: string) =>
+        new Promise<number>((r) => {
+          const req = db.transaction(store, "readonly").objectStore(store).count();
+          req.onsuccess = () => r(req.result);
+        });
+      const caches_ = await caches.keys();
+      return { outbox: await count("outbox"), bags: await count("bags"), meta: await count("meta"), caches: caches_.filter((c) => !c.includes("precache")) };
+    });
+    expect(left).toEqual({ outbox: 0, bags: 0, meta: 1, caches: [] }); // only the device id stays
+  }, 120_000);
 });
