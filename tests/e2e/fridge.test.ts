@@ -36,7 +36,12 @@ async function signIn(page: Page, email = "ada@bramblewick.example", password = 
 
 /** Waits until the sync loop has pulled the farm into the phone store (the round lists bags). */
 async function waitForFarm(page: Page) {
-  await page.getByTestId("round-bag").first().waitFor({ timeout: 30_000 });
+  try {
+    await page.getByTestId("round-bag").first().waitFor({ timeout: 60_000 });
+  } catch (e) {
+    await shoot(page, "fridge-farm-not-loaded");
+    throw e;
+  }
 }
 
 function demoBag() {
