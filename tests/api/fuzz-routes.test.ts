@@ -174,6 +174,16 @@ function buildRequest(target: Target, member: TestMember, query: Record<string, 
 
 type Outcome = { status: number; problem?: string };
 
+/** Independent of the server's own sniffing: the byte signatures of JPEG, PNG and WebP. */
+function startsLikeImage(b: Uint8Array): boolean {
+  const ascii = (from: number, to: number) => String.fromCharCode(...b.subarray(from, to));
+  return (
+    (b[0] === 0xff && b[1] === 0xd8 && b[2] === 0xff) ||
+    PNG_HEAD.every((x, i) => b[i] === x) ||
+    (b.length >= 12 && ascii(0, 4) === "RIFF" && ascii(8, 12) === "WEBP")
+  );
+}
+
 async function judge(res: unknown): Promise<Outcome> {
   if (!(res instanceof Response)) return { status: -1, problem: `handler returned ${typeof res}, not a Response` };
   if (res.status >= 500) return { status: res.status, problem: `server error ${res.status}: ${(await res.text()).slice(0, 300)}` };
@@ -270,6 +280,9 @@ describe("fuzzing every route handler", () => {
           } catch (err) {
             outcome = { status: -1, problem: `threw: ${(err as Error)?.stack?.split("\n").slice(0, 3).join(" | ")}` };
           }
+          // Uploads are judged by content: whatever the name or declared type, non-image bytes are never stored.
+          if (!outcome.problem && /upload/.test(target.urlPath) && target.method === "POST" && body.kind === "form" && body.form.file && !startsLikeImage(body.form.file.data) && outcome.status < 300)
+            outcome = { status: outcome.status, problem: `stored a file that is not an image (${body.form.file.name}, ${body.form.file.type})` };
           tally.cases++;
           tally.byStatus.set(outcome.status, (tally.byStatus.get(outcome.status) ?? 0) + 1);
           if (outcome.problem) {
@@ -285,6 +298,7 @@ describe("fuzzing every route handler", () => {
     const statuses = [...tally.byStatus.entries()].sort((a, b) => a[0] - b[0]).map(([s, n]) => `${s}×${n}`).join(" ");
     console.log(`[fuzz] ${tally.cases} cases over ${targets.length} handlers: ${statuses}`);
     expect(problems).toEqual([]);
+    if (targets.some((t) => t.urlPath === "/api/uploads")) expect(tally.byStatus.get(415) ?? 0, "non-images refused as 415").toBeGreaterThan(0);
     expect(tally.cases).toBeGreaterThanOrEqual(Math.min(TOTAL_CASES, 2000));
     // The generator must reach past parsing: a real share of the answers are successes.
     expect([...tally.byStatus.entries()].filter(([s]) => s >= 200 && s < 300).reduce((n, [, c]) => n + c, 0)).toBeGreaterThan(tally.cases * 0.05);
