@@ -22,7 +22,7 @@ export function CountStepper({ sowing, totals, today, canCount }: { sowing: Sowi
   // A new day, or a count synced in from another phone, resets the stepper to what is saved.
   useEffect(() => setValue(saved), [saved, day]);
 
-  const verdict = judgeCountEntry({ sownOn: sowing.sown_on, seedsSown: sowing.seeds_sown, today, countedOn: day, total: value, totals });
+  const verdict = judgeCountEntry({ sownOn: sowing.sown_on, seedsSown: sowing.seeds_sown, today, countedOn: day, total: value, totals, formatDay });
   const savedToday = totals.some((t) => t.countedOn === day);
   const changed = value !== saved || !savedToday;
 

@@ -53,22 +53,25 @@ export function judgeCountEntry(input: {
   countedOn: IsoDay;
   total: number;
   totals: readonly DailyTotal[];
+  /** How days are written in the messages (the screen passes "27 Nov"). */
+  formatDay?: (day: IsoDay) => string;
 }): StepperVerdict {
   const { sownOn, seedsSown, today, countedOn, total, totals } = input;
+  const day = input.formatDay ?? ((d: IsoDay) => d);
   if (!Number.isInteger(total) || total < 0) return { ok: false, message: "A count is a whole number, zero or more." };
-  if (countedOn <= sownOn) return { ok: false, message: `Counts start the day after sowing (sown ${sownOn}).` };
+  if (countedOn <= sownOn) return { ok: false, message: `Counts start the day after sowing (sown ${day(sownOn)}).` };
   if (countedOn > today) return { ok: false, message: "That day has not come yet; count on the day itself." };
   if (total > seedsSown) return { ok: false, message: `Only ${seedsSown} seeds were sown, so at most ${seedsSown} can be up.` };
   const before = [...totals].reverse().find((t) => t.countedOn < countedOn);
   if (before && total < before.total) {
     return {
       ok: false,
-      message: `${before.total} were already up on ${before.countedOn}. The count is a running total, so it cannot go below that; count every seedling up so far, including earlier ones.`,
+      message: `${before.total} were already up on ${day(before.countedOn)}. The count is a running total, so it cannot go below that; count every seedling up so far, including earlier ones.`,
     };
   }
   const after = totals.find((t) => t.countedOn > countedOn);
   if (after && total > after.total) {
-    return { ok: false, message: `A later count (${after.countedOn}) had only ${after.total}; a running total on an earlier day cannot be higher.` };
+    return { ok: false, message: `A later count (${day(after.countedOn)}) had only ${after.total}; a running total on an earlier day cannot be higher.` };
   }
   return { ok: true };
 }

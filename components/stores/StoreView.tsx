@@ -123,6 +123,32 @@ export function StoreView() {
       </Card>
 
       <Card>
+        <div className="flex flex-wrap gap-2">
+          {can("reading.record") ? (
+            <Button tone={panel === "reading" ? "primary" : "secondary"} aria-expanded={panel === "reading"} onClick={() => setPanel(panel === "reading" ? null : "reading")}>
+              Add a reading
+            </Button>
+          ) : null}
+          {can("import.readings") ? (
+            <Button tone={panel === "import" ? "primary" : "secondary"} aria-expanded={panel === "import"} onClick={() => setPanel(panel === "import" ? null : "import")}>
+              Import logger CSV
+            </Button>
+          ) : null}
+        </div>
+        {!can("reading.record") && identity ? <p className="text-label text-ink-soft">Your role can read the chart; Helpers and up add readings.</p> : null}
+        {panel === "reading" ? (
+          <div className="mt-4">
+            <ReadingEntry storeId={store.id} unit={unit} />
+          </div>
+        ) : null}
+        {panel === "import" ? (
+          <div className="mt-4">
+            <ReadingsImport storeId={store.id} farmUnit={unit} timeZone={identity?.farm.timezone ?? "UTC"} />
+          </div>
+        ) : null}
+      </Card>
+
+      <Card>
         <h2 className="mb-2 text-body font-bold text-glacier-800">Excursions</h2>
         {!exposure || exposure.excursions.length === 0 ? (
           <p className="text-label text-ink-soft">None in this period: every reading was inside {band.band.min}–{band.band.max} °{unit}.</p>
@@ -181,31 +207,6 @@ export function StoreView() {
         </ul>
       </Card>
 
-      <Card>
-        <div className="flex flex-wrap gap-2">
-          {can("reading.record") ? (
-            <Button tone={panel === "reading" ? "primary" : "secondary"} aria-expanded={panel === "reading"} onClick={() => setPanel(panel === "reading" ? null : "reading")}>
-              Add a reading
-            </Button>
-          ) : null}
-          {can("import.readings") ? (
-            <Button tone={panel === "import" ? "primary" : "secondary"} aria-expanded={panel === "import"} onClick={() => setPanel(panel === "import" ? null : "import")}>
-              Import logger CSV
-            </Button>
-          ) : null}
-        </div>
-        {!can("reading.record") && identity ? <p className="text-label text-ink-soft">Your role can read the chart; Helpers and up add readings.</p> : null}
-        {panel === "reading" ? (
-          <div className="mt-4">
-            <ReadingEntry storeId={store.id} unit={unit} />
-          </div>
-        ) : null}
-        {panel === "import" ? (
-          <div className="mt-4">
-            <ReadingsImport storeId={store.id} farmUnit={unit} timeZone={identity?.farm.timezone ?? "UTC"} />
-          </div>
-        ) : null}
-      </Card>
     </main>
   );
 }

@@ -48,6 +48,11 @@ describe("judgeCountEntry: rules of the +/− stepper", () => {
     if (!v.ok && says) expect(v.message).toContain(says);
   });
 
+  it("writes days the screen's way", () => {
+    const v = judgeCountEntry({ ...base, countedOn: "2026-03-09", total: 3, formatDay: (d) => `the ${d.slice(8)}th` });
+    expect(v.ok ? "" : v.message).toContain("10 were already up on the 08th");
+  });
+
   it.each([
     { day: "2026-03-09", want: 10 },
     { day: "2026-03-08", want: 10 },
