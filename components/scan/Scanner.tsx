@@ -34,6 +34,11 @@ export function Scanner() {
   const fetched = useLiveQuery(() => loadFarmFetched(getLocalDb()), []);
   const codesRef = useRef<FarmCodes | undefined>(undefined);
   codesRef.current = codes;
+  const fetchedRef = useRef(fetched);
+  fetchedRef.current = fetched;
+  /** Before the first fetch, "unknown" only means "not on this phone yet". */
+  const explainUnknown = (r: CodeLookup): string =>
+    r.kind === "unknown" && fetchedRef.current === false ? `${r.message} Your farm is still being fetched onto this phone; try again in a moment.` : "message" in r ? r.message : "";
   const lastTextRef = useRef<string>("");
   const leavingRef = useRef(false);
   // The bag just saved is usually still in front of the camera: it is not reopened until it has left the view.
@@ -64,7 +69,7 @@ export function Scanner() {
       if (result.kind === "found") return openBag(result.bagId);
       if (text === lastTextRef.current) return;
       lastTextRef.current = text;
-      setNotice({ text: result.message });
+      setNotice({ text: explainUnknown(result) });
     },
     [openBag],
   );
@@ -132,7 +137,7 @@ export function Scanner() {
     if (result.kind === "found") openBag(result.bagId);
   }
 
-  const typedError = typedResult && typedResult.kind !== "found" ? typedResult.message : undefined;
+  const typedError = typedResult && typedResult.kind !== "found" ? explainUnknown(typedResult) : undefined;
 
   return (
     <div className="space-y-4">
@@ -142,12 +147,6 @@ export function Scanner() {
           Today&apos;s round
         </Link>
       </header>
-
-      {fetched === false ? (
-        <p role="status" className="rounded-card bg-rime-100 p-3 text-label">
-          Your farm is still being fetched onto this phone (this needs signal once); until then a label may show as unknown.
-        </p>
-      ) : null}
 
       {saved ? (
         <p role="status" className="rounded-card border-l-4 border-moss-600 bg-moss-100 p-3 font-semibold text-moss-700" data-testid="saved-notice">

@@ -12,7 +12,7 @@ export interface CameraTroubleText {
 const texts: Record<CameraTrouble, Omit<CameraTroubleText, "kind">> = {
   denied: {
     title: "The camera is blocked for Rimebook",
-    text: "To scan labels, allow the camera for this site in your browser's site settings (the lock or ⓘ next to the address), then reload this page. Until then, type the code printed under the QR code.",
+    text: "To scan labels, allow the camera for this site in your browser's site settings (the lock or info sign next to the address), then reload this page. Until then, type the code printed under the QR code.",
   },
   absent: {
     title: "No camera found",

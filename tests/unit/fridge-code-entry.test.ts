@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import QRCode from "qrcode";
 import { buildLabelPayload, readLabelPayload } from "@/lib/domain/label-payload";
 import { indexFarmCodes, lookUpScannedText, lookUpTypedCode } from "@/components/scan/code-entry";
+import { classifyCameraError, describeCameraTrouble } from "@/components/scan/camera-trouble";
 
 // Check symbols are worked out here independently of lib/domain, straight from Douglas Crockford's
 // "Base 32" (crockford.com/base32.html): the check symbol encodes the code's value modulo 37, with
@@ -126,5 +127,26 @@ describe("label QR payload", () => {
     const other = withCheck("ZZZZZZ");
     expect(lookUpScannedText(buildLabelPayload(other, "http://x.test"), farm)).toMatchObject({ kind: "unknown", message: expect.stringContaining("on this farm") });
     expect(lookUpScannedText("https://example.org/", farm).kind).toBe("not_label");
+  });
+});
+
+describe("camera trouble", () => {
+  // Error names from W3C Media Capture and Streams (getUserMedia); the "…Error" aliases are older Chrome's.
+  it.each([
+    ["NotAllowedError", "denied"],
+    ["PermissionDeniedError", "denied"],
+    ["SecurityError", "denied"],
+    ["NotFoundError", "absent"],
+    ["OverconstrainedError", "absent"],
+    ["NotReadableError", "busy"],
+    ["TypeError", "failed"],
+  ])("%s → %s, with typed entry offered", (name, kind) => {
+    const trouble = describeCameraTrouble(classifyCameraError(Object.assign(new Error("x"), { name })));
+    expect(trouble.kind).toBe(kind);
+    expect(trouble.text).toMatch(/type the code/i);
+  });
+
+  it("copes with something that is not an error at all", () => {
+    expect(classifyCameraError(undefined)).toBe("failed");
   });
 });
