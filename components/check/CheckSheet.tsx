@@ -24,7 +24,7 @@ import { Segmented } from "@/components/ui/Segmented";
 import { StateBadge } from "@/components/ui/StateBadge";
 import { formatShortDay } from "@/components/bags/format-day";
 import { cadenceFor } from "@/components/today/round-input";
-import { allGoodDraft, planCheckSave, previewCheck, toggleAction, type CheckDraft, type CheckSavePlan } from "./check-draft";
+import { allGoodDraft, markAllGood, planCheckSave, previewCheck, toggleAction, type CheckDraft, type CheckSavePlan } from "./check-draft";
 import { compressPhoto } from "./compress-photo";
 import { describeSheet, formatPullWindow } from "./sheet-view";
 
@@ -140,8 +140,11 @@ export function CheckSheet() {
   }
 
   function saveAllGood() {
-    const r = planCheckSave({ ...allGoodDraft }, { bag: forCheck, now: new Date(), today, unit, newId: () => crypto.randomUUID() });
-    if (r.ok) void persist(r.plan);
+    const r = planCheckSave(markAllGood(form.getValues()), { bag: forCheck, now: new Date(), today, unit, newId: () => crypto.randomUUID() });
+    if (r.ok) return void persist(r.plan);
+    if (r.fields.temperature) form.setError("temperatureText", { type: "invalid", message: r.fields.temperature });
+    if (r.fields.note) form.setError("note", { type: "invalid", message: r.fields.note });
+    setSaveError("Not saved: see the marked field below.");
   }
 
   const onSubmit = form.handleSubmit((values) => {

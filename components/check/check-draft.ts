@@ -22,6 +22,11 @@ export interface CheckDraft {
 
 export const allGoodDraft: CheckDraft = { ...allGoodFindings, actions: [], note: "", temperatureText: "" };
 
+/** The one-tap save: the findings are "all good"; a note, temperature or action already entered is kept. */
+export function markAllGood(draft: CheckDraft): CheckDraft {
+  return { ...draft, ...allGoodFindings };
+}
+
 export interface BagForCheck {
   id: string;
   storeId: string | null;

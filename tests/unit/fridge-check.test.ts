@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { allGoodDraft, planCheckSave, previewCheck, toggleAction, type BagForCheck, type CheckDraft } from "@/components/check/check-draft";
+import { allGoodDraft, markAllGood, planCheckSave, previewCheck, toggleAction, type BagForCheck, type CheckDraft } from "@/components/check/check-draft";
 import { computePullWindow } from "@/lib/domain/schedule";
 import { formatPullWindow } from "@/components/check/sheet-view";
 import { starterProtocols } from "@/lib/domain/starter-protocols";
@@ -36,6 +36,11 @@ describe("All good in one tap", () => {
     expect(r.plan.check).toMatchObject({ bag_id: bag.id, checked_at: "2026-01-08T09:30:00.000Z", moisture: "damp", mould: "clean", sprouts: "none", actions: [], note: null, temperature_c: null });
     expect(mutationTable["check.record"].args.safeParse(r.plan.check).success).toBe(true);
     expect(r.plan).toMatchObject({ reading: null, pull: null, discard: null });
+  });
+
+  it("keeps a note, temperature or action already entered, and forces the findings to all good", () => {
+    const draft = markAllGood({ moisture: "soggy", mould: "spots", sprouts: "many", actions: ["blotted"], note: "new towel", temperatureText: "4" });
+    expect(draft).toEqual({ moisture: "damp", mould: "clean", sprouts: "none", actions: ["blotted"], note: "new towel", temperatureText: "4" });
   });
 
   it("previews calm advice and the next check: the day the window opens (weekly cadence, product rule)", () => {
