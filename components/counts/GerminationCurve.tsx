@@ -10,7 +10,7 @@ export function GerminationCurve({ curve, t50 }: { curve: SowingSummary["curve"]
   return (
     <div className="h-52 w-full" role="img" aria-label={`Cumulative germination reached ${last.percent.toFixed(0)} % by day ${last.day} after sowing.`}>
       <ResponsiveContainer width="100%" height="100%">
-        <LineChart data={curve} margin={{ top: 12, right: 12, bottom: 4, left: 0 }}>
+        <LineChart data={curve} margin={{ top: 22, right: 12, bottom: 4, left: 0 }}>
           <CartesianGrid stroke="var(--color-rime-200)" strokeDasharray="2 4" />
           <XAxis dataKey="day" type="number" domain={[0, "dataMax"]} allowDecimals={false} tick={{ fontSize: 12, fill: "var(--color-ink-soft)" }} label={{ value: "days since sowing", position: "insideBottomRight", offset: -2, fontSize: 12 }} />
           <YAxis domain={[0, 100]} unit="%" tick={{ fontSize: 12, fill: "var(--color-ink-soft)" }} width={48} />

@@ -25,7 +25,8 @@ export function StoresScreen() {
     );
     return stores.map((s, i) => ({
       store: s,
-      activeBags: bags.filter((b) => b.store_id === s.id && !b.deleted_at && !b.pulled_on && !b.discarded_on && !b.sown_on).length,
+      // Bags in the store now: started, not yet pulled or discarded.
+      activeBags: bags.filter((b) => b.store_id === s.id && !b.deleted_at && b.start_date && !b.pulled_on && !b.discarded_on && !b.sown_on).length,
       latest: latest[i] ?? null,
     }));
   }, []);
