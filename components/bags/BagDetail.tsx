@@ -267,12 +267,12 @@ function ColdDays({
           ) : null}
           <ul className="list-disc space-y-1 pl-5 text-label text-ink-soft">
             {data.readings.length === 0 ? <li>This store has no readings on this phone yet.</li> : null}
-            {e.gaps.length === 0 ? (
-              <li>Had the readings stopped for more than 6 hours, that time would be counted as cold, as a working fridge stays in its band.</li>
-            ) : null}
             {e.assumptions.map((a) => (
               <li key={a}>{a}</li>
             ))}
+            {e.gaps.length === 0 ? (
+              <li>Had the readings stopped for more than 6 hours, that time would be counted as cold, as a working fridge stays in its band.</li>
+            ) : null}
           </ul>
           <Link href={`/stores/view?id=${encodeURIComponent(store.id)}`} className="inline-flex min-h-tap items-center text-label font-semibold text-glacier-700 underline underline-offset-4">
             {store.name}: readings and chart
