@@ -23,7 +23,9 @@ async function loadRound(today: string) {
   const live = rows.bags.filter((b) => !b.deleted_at && b.start_date && !b.pulled_on && !b.sown_on && !b.discarded_on);
   const lastChecks = await loadLastChecks(db, live.map((b) => b.id));
   const round = buildRoundFromRows(rows, lastChecks, today, cadenceFor(identity?.farm.weekly_check_days));
-  return { round, identity, fetched, bagCount: rows.bags.length };
+  // The same bags the red chips count, so the sentence and the chips agree.
+  const urgent = round.items.filter((i) => urgentChipKinds.has(chipKindOf(i))).length;
+  return { round, identity, fetched, urgent, bagCount: rows.bags.length };
 }
 
 const longDay = new Intl.DateTimeFormat("en-GB", { weekday: "long", day: "numeric", month: "long" });
@@ -41,7 +43,7 @@ export function TodayRound() {
           <p className="text-body text-ink-soft" data-testid="round-count">
             {data.round.counts.due === 0
               ? "No bags due for a check."
-              : `${data.round.counts.due} ${data.round.counts.due === 1 ? "bag" : "bags"} to check${data.round.counts.urgent ? `, ${data.round.counts.urgent} needing action first` : ""}.`}
+              : `${data.round.counts.due} ${data.round.counts.due === 1 ? "bag" : "bags"} to check${data.urgent ? `, ${data.urgent} needing action first` : ""}.`}
           </p>
         ) : null}
       </header>
