@@ -102,7 +102,7 @@ export function BagActions({ bag, state, stores, today, can }: { bag: Bag; state
 
       {panel === "discard" ? (
         <section aria-label="Discard the bag" className="space-y-3 rounded-card border-2 border-ember-600 bg-white p-3">
-          <Caution title="Mouldy material" tone="strong">
+          <Caution title="If there is mould" tone="strong">
             {cautionTexts.mould}
           </Caution>
           <Field label="Why is it discarded? (optional)" htmlFor="discard-reason" hint="For example: mould spreading, dried out, seed rotted.">
