@@ -81,8 +81,18 @@ export function ReadingsImport({ storeId, farmUnit, timeZone }: { storeId: strin
     post(true)
       .then(({ status, body }) => {
         if (!live) return;
-        if (status === 200 && typeof body.toImport === "number") setServerCheck(body.toImport === 0 ? "Every reading in this file is already recorded." : `${body.toImport} new reading${body.toImport === 1 ? "" : "s"}; the rest are already recorded.`);
-        else if (body.error) setServerCheck(body.error.message);
+        if (status !== 200 || typeof body.toImport !== "number") {
+          if (body.error) setServerCheck(body.error.message);
+          return;
+        }
+        const known = (preview?.counts.ok ?? body.toImport) - body.toImport;
+        setServerCheck(
+          body.toImport === 0
+            ? "Every reading in this file is already recorded."
+            : known > 0
+              ? `${body.toImport} new; ${known} already recorded will be skipped.`
+              : `All ${body.toImport} are new to this store.`,
+        );
       })
       .catch(() => undefined);
     return () => {
