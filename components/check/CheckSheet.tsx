@@ -10,7 +10,7 @@ import { loadBagForSheet, loadFarmFetched } from "@/lib/client/fridge-reads";
 import { loadIdentity } from "@/lib/client/identity";
 import { queuePhoto } from "@/lib/client/photos";
 import { discardBag, pullBag, recordCheck, recordReading } from "@/lib/client/repo";
-import { formatBagCode } from "@/lib/domain/bag-codes";
+import { formatBagCode, parseBagCode } from "@/lib/domain/bag-codes";
 import { formatIsoDay } from "@/lib/domain/dates";
 import { formatTemperature, type TemperatureUnit } from "@/lib/domain/units";
 import { AppError } from "@/lib/errors";
@@ -103,9 +103,12 @@ export function CheckSheet() {
   }
   if (!data.sheet || !view) {
     const shown = code ? formatBagCode(code) : null;
+    const parsed = code ? parseBagCode(code) : null;
     return (
       <Card role="alert" className="space-y-3">
-        <p className="font-semibold">{shown ? `No bag with code ${shown} on this farm.` : "This bag is not on this phone."}</p>
+        <p className="font-semibold">
+          {parsed && !parsed.ok ? `The code ${code} cannot be read. ${parsed.message}` : shown ? `No bag with code ${shown} on this farm.` : "This bag is not on this phone."}
+        </p>
         <p className="text-label text-ink-soft">
           If the bag was added on another phone moments ago, connect once so this phone can fetch it. A label from another farm cannot be opened here.
         </p>
