@@ -4,6 +4,7 @@ import Link from "next/link";
 import { usePathname, useRouter } from "next/navigation";
 import { useEffect, useState } from "react";
 import { signOut } from "@/lib/client/identity";
+import { unsentWords } from "./sync-words";
 import { BagsGlyph, MoreGlyph, ScanGlyph, SeasonGlyph, TodayGlyph } from "./NavIcons";
 
 // Phone navigation: five thumb-sized targets at the bottom. Season and More open a short menu.
@@ -101,9 +102,8 @@ function SignOutItem() {
       {warning ? (
         <div role="alert" className="space-y-2">
           <p className="text-label">
-            <strong className="text-ember-700">Not everything is sent yet.</strong> {warning.pending} change{warning.pending === 1 ? "" : "s"}
-            {warning.photos ? ` and ${warning.photos} photo${warning.photos === 1 ? "" : "s"}` : ""} are only on this phone. Signing out now deletes them. Find signal and wait for
-            &ldquo;Synced&rdquo; first if you can.
+            <strong className="text-ember-700">Not everything is sent yet.</strong> {unsentWords(warning)} only on this phone. Signing out now deletes{" "}
+            {warning.pending + warning.photos === 1 ? "it" : "them"}. Find signal and wait for &ldquo;Synced&rdquo; first if you can.
           </p>
           <div className="flex gap-2">
             <button type="button" onClick={() => setWarning(null)} className="min-h-tap rounded-card bg-glacier-700 px-4 font-semibold text-white">

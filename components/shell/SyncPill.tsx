@@ -1,6 +1,7 @@
 "use client";
 
 import { useState } from "react";
+import { createPortal } from "react-dom";
 import { useSyncStatus } from "@/lib/client/hooks";
 import { describeSyncStatus, type PillTone } from "./sync-words";
 import { SyncDetails } from "./SyncDetails";
@@ -33,7 +34,8 @@ export function SyncPill() {
         <span className={`h-2.5 w-2.5 rounded-full ${dots[tone]} ${status.phase === "syncing" ? "animate-pulse" : ""}`} aria-hidden="true" />
         <span className="whitespace-nowrap">{text}</span>
       </button>
-      {open && <SyncDetails status={status} onClose={() => setOpen(false)} />}
+      {/* Portalled: the sticky header's backdrop blur would otherwise trap a fixed dialog inside it. */}
+      {open && createPortal(<SyncDetails status={status} onClose={() => setOpen(false)} />, document.body)}
     </>
   );
 }

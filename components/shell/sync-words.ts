@@ -34,6 +34,12 @@ export function describeSyncStatus(s: PillInput, time: (iso: string) => string =
   return { text: "Not synced yet", tone: "waiting" };
 }
 
+/** "1 change is", "3 changes and 1 photo are". */
+export function unsentWords({ pending, photos }: { pending: number; photos: number }): string {
+  const parts = [pending && `${pending} change${pending === 1 ? "" : "s"}`, photos && `${photos} photo${photos === 1 ? "" : "s"}`].filter(Boolean);
+  return `${parts.join(" and ")} ${pending + photos === 1 ? "is" : "are"}`;
+}
+
 /** A refused change, named the way the person thinks of it. */
 export const mutationWords: Record<MutationName, string> = {
   "farm.update": "Farm settings",

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { describeSyncStatus, type PillInput } from "@/components/shell/sync-words";
+import { describeSyncStatus, unsentWords, type PillInput } from "@/components/shell/sync-words";
 
 // The status pill's words for each state of the sync loop (ARCHITECTURE.md: offline / N waiting /
 // synced at HH:MM / needs sign-in / sync error).
@@ -22,4 +22,13 @@ describe("describeSyncStatus", () => {
   ] as const)("%j → %s", (patch, text, tone) => {
     expect(describeSyncStatus({ ...base, ...patch } as PillInput, at)).toEqual({ text, tone });
   });
+});
+
+describe("unsentWords", () => {
+  it.each([
+    [{ pending: 1, photos: 0 }, "1 change is"],
+    [{ pending: 3, photos: 0 }, "3 changes are"],
+    [{ pending: 0, photos: 1 }, "1 photo is"],
+    [{ pending: 2, photos: 1 }, "2 changes and 1 photo are"],
+  ])("%j → %s", (counts, words) => expect(unsentWords(counts)).toBe(words));
 });
