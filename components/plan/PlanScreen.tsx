@@ -21,7 +21,8 @@ import { useToday } from "@/components/bags/use-farm-rows";
 import { describeSaveError } from "@/components/bags/save-error";
 import { useMember } from "@/components/season/use-member";
 import { describeMonthDay } from "@/components/settings/frost-date";
-import { computePlanRow, pickPlanProtocol, summarizeSpeciesHistory, toProtocolForPlan, type PlanRowResult } from "./plan-rows";
+import { computePlanRow, pickPlanProtocol, summarizeSpeciesHistory, type PlanRowResult } from "./plan-rows";
+import { readProtocolRow } from "@/components/protocols/protocol-row";
 import { layOutTimeline } from "./timeline";
 import { PlanItemForm } from "./PlanItemForm";
 import { SeasonTimeline } from "./SeasonTimeline";
@@ -69,7 +70,7 @@ export function PlanScreen() {
         const lot = rows.lots.find((l) => l.id === item.lot_id) ?? null;
         const protocol = pickPlanProtocol(item, lot, rows.protocols);
         const history = summarizeSpeciesHistory(item.species, rows);
-        const result = computePlanRow({ item, lastFrost, today, protocol: protocol ? toProtocolForPlan(protocol) : null, lot, history });
+        const result = computePlanRow({ item, lastFrost, today, protocol: protocol ? readProtocolRow(protocol) : null, lot, history });
         const bag = item.bag_id ? (rows.bags.find((b) => b.id === item.bag_id) ?? null) : null;
         return { item, lot, protocol, result, bag };
       })

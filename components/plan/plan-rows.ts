@@ -9,6 +9,7 @@ import type { Sowing } from "@/lib/schemas/sowing";
 import type { Count } from "@/lib/schemas/count";
 import type { ProtocolRow } from "@/lib/client/db";
 import { findFinalTotal } from "@/components/counts/count-series";
+import { matchProtocolBySpecies } from "@/components/protocols/protocol-row";
 
 // Pure wiring from a plan row (as stored on the phone) to lib/domain's planSeason.
 
@@ -46,24 +47,14 @@ export function summarizeSpeciesHistory(
   return counted > 0 ? { germinated, sown, sowings: counted } : null;
 }
 
-export function toProtocolForPlan(row: Pick<ProtocolRow, "species" | "phases" | "effective_band">): ProtocolForPlan {
-  return { species: row.species, phases: row.phases, effectiveBand: row.effective_band };
-}
-
-/** The protocol a plan row uses: its own, else its lot's, else the farm's protocol for the species. */
-export function pickPlanProtocol<P extends Pick<ProtocolRow, "id" | "species" | "is_farm_own">>(
+/** The protocol a plan row uses: its own, else its lot's, else the farm's for the species (as the new-bag form picks). */
+export function pickPlanProtocol<P extends Pick<ProtocolRow, "id" | "species" | "is_farm_own" | "deleted_at">>(
   item: Pick<PlanItem, "protocol_id" | "species">,
   lot: Pick<Lot, "protocol_id"> | null,
   protocols: readonly P[],
 ): P | null {
-  const byId = (id: string | null | undefined) => (id ? protocols.find((p) => p.id === id) ?? null : null);
-  return (
-    byId(item.protocol_id) ??
-    byId(lot?.protocol_id) ??
-    // The farm's own protocol wins over a starter row for the same species.
-    [...protocols].sort((a, b) => Number(b.is_farm_own) - Number(a.is_farm_own)).find((p) => sameSpecies(p.species, item.species)) ??
-    null
-  );
+  const byId = (id: string | null | undefined) => (id ? (protocols.find((p) => p.id === id && !p.deleted_at) ?? null) : null);
+  return byId(item.protocol_id) ?? byId(lot?.protocol_id) ?? matchProtocolBySpecies(item.species, protocols);
 }
 
 /** "05-10" in season 2027 → 2027-05-10; null when the farm has not set its frost date. */

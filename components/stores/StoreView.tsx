@@ -16,7 +16,7 @@ import { StateBadge } from "@/components/ui/StateBadge";
 import { useMember } from "@/components/season/use-member";
 import { useToday } from "@/components/bags/use-farm-rows";
 import { formatShortDay as formatDay, formatStamp } from "@/components/bags/format-day";
-import { toProtocolForPlan } from "@/components/plan/plan-rows";
+import { readProtocolRow } from "@/components/protocols/protocol-row";
 import { buildChartPoints, describeBand, measureBagCold, measureStore } from "./store-metrics";
 import { ReadingsChart } from "./ReadingsChart";
 import { ReadingEntry } from "./ReadingForm";
@@ -69,7 +69,7 @@ export function StoreView() {
     .map((bag) => {
       const lot = lots.find((l) => l.id === bag.lot_id) ?? null;
       const protocolRow = protocols.find((p) => p.id === bag.protocol_id) ?? null;
-      const protocol = protocolRow ? toProtocolForPlan(protocolRow) : null;
+      const protocol = protocolRow ? readProtocolRow(protocolRow) : null;
       const cold = measureBagCold(bag, protocol, readings, nowIso);
       const state = determineBagState({ startedOn: bag.start_date, pulledOn: bag.pulled_on, sownOn: bag.sown_on, discardedOn: bag.discarded_on }, cold.shifted ?? cold.window, today);
       return { bag, lot, cold, state };

@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { layOutTimeline } from "@/components/plan/timeline";
 import { PlanForm, planFormToItem, planItemToForm } from "@/components/plan/plan-form";
 import { PlanItemInput } from "@/lib/schemas/plan";
-import { computePlanRow, findFrostDay, pickPlanProtocol, summarizeSpeciesHistory, toProtocolForPlan } from "@/components/plan/plan-rows";
+import { computePlanRow, findFrostDay, pickPlanProtocol, summarizeSpeciesHistory } from "@/components/plan/plan-rows";
 import type { ProtocolForPlan } from "@/lib/domain/schedule";
 
 // Cold-moist 14–28 days (the shape of Kaye et al. 2018's Asclepias speciosa row, REFERENCES.md).
@@ -119,14 +119,18 @@ describe("summarizeSpeciesHistory", () => {
 
 describe("pickPlanProtocol and findFrostDay", () => {
   const protocols = [
-    { id: "p1", species: "Echinacea purpurea", is_farm_own: false },
-    { id: "p2", species: "Echinacea purpurea", is_farm_own: true },
-    { id: "p3", species: "Baptisia australis", is_farm_own: false },
+    { id: "p1", species: "Echinacea purpurea", is_farm_own: false, deleted_at: null },
+    { id: "p2", species: "Echinacea purpurea", is_farm_own: true, deleted_at: null },
+    { id: "p3", species: "Baptisia australis", is_farm_own: false, deleted_at: null },
+    { id: "p4", species: "Sambucus spp.", is_farm_own: false, deleted_at: null },
+    { id: "p5", species: "Lavandula angustifolia", is_farm_own: true, deleted_at: "2026-01-01T00:00:00Z" },
   ];
   it.each([
     { name: "its own protocol", item: { protocol_id: "p3", species: "Echinacea purpurea" }, lot: null, want: "p3" },
     { name: "the lot's protocol", item: { protocol_id: null, species: "Echinacea purpurea" }, lot: { protocol_id: "p1" }, want: "p1" },
     { name: "the farm's own for the species", item: { protocol_id: null, species: "echinacea purpurea" }, lot: null, want: "p2" },
+    { name: "a genus-wide row for a species of that genus", item: { protocol_id: null, species: "Sambucus canadensis" }, lot: null, want: "p4" },
+    { name: "a removed protocol is not used", item: { protocol_id: "p5", species: "Lavandula angustifolia" }, lot: null, want: null },
     { name: "none", item: { protocol_id: null, species: "Nothing" }, lot: null, want: null },
   ])("$name", ({ item, lot, want }) => expect(pickPlanProtocol(item, lot, protocols)?.id ?? null).toBe(want));
 
@@ -134,10 +138,6 @@ describe("pickPlanProtocol and findFrostDay", () => {
     { season: 2027, frost: "05-10", want: "2027-05-10" },
     { season: 2027, frost: null, want: null },
   ])("frost $frost in $season", ({ season, frost, want }) => expect(findFrostDay(season, frost)).toBe(want));
-
-  it("maps a stored protocol row for the domain", () => {
-    expect(toProtocolForPlan({ species: "X", phases: [], effective_band: { minC: 2, maxC: 8 } })).toEqual({ species: "X", phases: [], effectiveBand: { minC: 2, maxC: 8 } });
-  });
 });
 
 describe("layOutTimeline", () => {
