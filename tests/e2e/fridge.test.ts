@@ -3,13 +3,13 @@
 // phone (outbox) and, once the signal is back, on the server.
 import fs from "node:fs";
 import path from "node:path";
-import Database from "better-sqlite3";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
 import { startApp, type AppServer } from "./support/server";
 import { launchChromium, phoneContext, shoot, watchErrors } from "./support/browser";
 import { ARTIFACTS } from "./support/build";
 import { matrixFromLabelPath, writeQrVideo } from "./support/qr-camera";
+import { queryServer, signIn, waitForRows, waitForServiceWorker } from "./support/pages";
 
 let app: AppServer;
 let browser: Browser | null = null;
@@ -26,13 +26,7 @@ afterAll(async () => {
   await app?.stop();
 });
 
-async function signIn(page: Page, email = "ada@bramblewick.example", password = "helper-frost-demo") {
-  await page.goto("/sign-in");
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password", { exact: true }).fill(password);
-  await page.getByRole("button", { name: /sign in/i }).click();
-  await page.waitForURL(/\/today/);
-}
+const helper = { email: "ada@bramblewick.example", password: "helper-frost-demo" };
 
 /** Waits until the sync loop has pulled the farm into the phone store (the round lists bags). */
 async function waitForFarm(page: Page) {
@@ -44,35 +38,18 @@ async function waitForFarm(page: Page) {
   }
 }
 
+/** A bag in the cold (most recently started): the one-tap case. */
 function demoBag() {
-  const db = new Database(app.databaseFile, { readonly: true });
-  try {
-    // A bag in the cold whose last check was clean: the one-tap case.
-    return db
-      .prepare(
-        `SELECT b.id, b.code FROM bags b WHERE b.start_date IS NOT NULL AND b.pulled_on IS NULL AND b.discarded_on IS NULL AND b.sown_on IS NULL
-         ORDER BY b.start_date DESC LIMIT 1`,
-      )
-      .get() as { id: string; code: string };
-  } finally {
-    db.close();
-  }
+  return queryServer<{ id: string; code: string }>(
+    app.databaseFile,
+    `SELECT id, code FROM bags WHERE start_date IS NOT NULL AND pulled_on IS NULL AND discarded_on IS NULL AND sown_on IS NULL
+     ORDER BY start_date DESC LIMIT 1`,
+  )[0];
 }
 
-function serverChecks(bagId: string) {
-  const db = new Database(app.databaseFile, { readonly: true });
-  try {
-    return db.prepare(`SELECT moisture, mould, sprouts, actions, checked_by FROM checks WHERE bag_id = ? ORDER BY checked_at DESC`).all(bagId) as {
-      moisture: string;
-      mould: string;
-      sprouts: string;
-      actions: string;
-      checked_by: string;
-    }[];
-  } finally {
-    db.close();
-  }
-}
+type CheckRow = { moisture: string; mould: string; sprouts: string; actions: string };
+const checksOf = (bagId: string) =>
+  queryServer<CheckRow>(app.databaseFile, `SELECT moisture, mould, sprouts, actions FROM checks WHERE bag_id = ? ORDER BY checked_at DESC`, bagId);
 
 describe("scan a printed label and save a check with one tap", () => {
   let video = "";
@@ -83,7 +60,7 @@ describe("scan a printed label and save a check with one tap", () => {
     const context = await phoneContext(browser!, app.origin);
     const page = await context.newPage();
     const errors = watchErrors(page);
-    await signIn(page);
+    await signIn(page, helper);
     await waitForFarm(page);
     await page.goto(`/labels?ids=${bag.id}&size=large`);
     const label = page.locator(`article[data-code="${bag.code}"]`);
@@ -109,15 +86,11 @@ describe("scan a printed label and save a check with one tap", () => {
     const context = await phoneContext(cameraBrowser, app.origin, { camera: true });
     const page = await context.newPage();
     const errors = watchErrors(page);
-    await signIn(page);
+    await signIn(page, helper);
     await waitForFarm(page);
     await shoot(page, "fridge-02-today");
     // The service worker must hold the app (scanner chunk included) before the signal goes.
-    await page.evaluate(async () => {
-      await navigator.serviceWorker.ready;
-      for (let i = 0; i < 100 && !navigator.serviceWorker.controller; i++) await new Promise((r) => setTimeout(r, 100));
-    });
-    await page.reload();
+    await waitForServiceWorker(page);
     await waitForFarm(page);
 
     await context.setOffline(true);
@@ -143,18 +116,14 @@ describe("scan a printed label and save a check with one tap", () => {
         }),
     );
     expect(outbox).toContainEqual({ name: "check.record", status: "pending", bag: bag.id });
-    const before = serverChecks(bag.id).length;
+    const before = checksOf(bag.id).length;
     await shoot(page, "fridge-04-saved-offline");
 
     await context.setOffline(false);
     await page.evaluate(() => window.dispatchEvent(new Event("online")));
-    let after = before;
-    for (let i = 0; i < 60 && after === before; i++) {
-      await page.waitForTimeout(500);
-      after = serverChecks(bag.id).length;
-    }
-    expect(after).toBe(before + 1);
-    expect(serverChecks(bag.id)[0]).toMatchObject({ moisture: "damp", mould: "clean", sprouts: "none", actions: "[]" });
+    const after = await waitForRows<CheckRow>(app.databaseFile, `SELECT moisture, mould, sprouts, actions FROM checks WHERE bag_id = ? ORDER BY checked_at DESC`, [bag.id], (rows) => rows.length > before);
+    expect(after).toHaveLength(before + 1);
+    expect(after[0]).toMatchObject({ moisture: "damp", mould: "clean", sprouts: "none", actions: "[]" });
     expect(errors.filter((e) => !/ERR_INTERNET_DISCONNECTED|Failed to fetch|net::|status of 404/.test(e))).toEqual([]);
     await context.close();
   }, 180_000);
