@@ -1,0 +1,94 @@
+// The demo farm: an invented restoration nursery. Every name, lot, bag and number here is made up
+// for the demo; dates are relative to today so the demo always looks alive.
+
+export const demoFarm = {
+  id: "b7a3c1d2-0000-4000-8000-000000000001",
+  name: "Bramblewick Native Nursery",
+  lastFrostDate: "05-08",
+  locationNote: "Valley floor, frost pocket by the lower beds",
+};
+
+export const demoMembers = [
+  { key: "owner", name: "Wren Alder", email: "wren@bramblewick.example", role: "owner", password: "owner-frost-demo" },
+  { key: "grower", name: "Tomas Reed", email: "tomas@bramblewick.example", role: "grower", password: "grower-frost-demo" },
+  { key: "helper", name: "Ada Finch", email: "ada@bramblewick.example", role: "helper", password: "helper-frost-demo" },
+  { key: "viewer", name: "Juniper Cole", email: "juniper@bramblewick.example", role: "viewer", password: "viewer-frost-demo" },
+] as const;
+
+export const demoStores = [
+  { key: "barn", name: "Barn fridge", kind: "fridge", boxes: ["Box A", "Box B", "Box C"], holdsFood: false, meanC: 3.4, spreadC: 0.6 },
+  { key: "shed", name: "Potting-shed fridge", kind: "fridge", boxes: ["Top shelf", "Crisper"], holdsFood: true, meanC: 4.6, spreadC: 0.9 },
+  { key: "freezer", name: "Chest freezer", kind: "freezer", boxes: ["Basket 1"], holdsFood: false, meanC: -18, spreadC: 1.2 },
+] as const;
+
+/** Species match the starter protocol rows by botanical name (genus for "spp."). */
+export const demoLots = [
+  { key: "milkweed", species: "Asclepias syriaca", common: "Common milkweed", source: "Hollow Lane roadside collection", year: 2025, quantity: 420 },
+  { key: "showy", species: "Asclepias speciosa", common: "Showy milkweed", source: "Prairie Edge seed co-op", year: 2025, quantity: 260 },
+  { key: "narrowleaf", species: "Asclepias fascicularis", common: "Narrowleaf milkweed", source: "Dry Creek bank collection", year: 2024, quantity: 310 },
+  { key: "coneflower", species: "Echinacea purpurea", common: "Purple coneflower", source: "Bramblewick stock beds", year: 2025, quantity: 1200 },
+  { key: "indigo", species: "Baptisia australis", common: "Blue false indigo", source: "Prairie Edge seed co-op", year: 2025, quantity: 150 },
+  { key: "lavender", species: "Lavandula angustifolia", common: "English lavender", source: "Heathside Herbs", year: 2025, quantity: 500 },
+  { key: "stjohns", species: "Hypericum perforatum", common: "St John's wort", source: "Heathside Herbs", year: 2024, quantity: 2000 },
+  { key: "strawberry", species: "Fragaria vesca", common: "Woodland strawberry", source: "Oakhanger hedge collection", year: 2025, quantity: 600 },
+  { key: "ramps", species: "Allium tricoccum", common: "Ramps", source: "Cedar Run woodlot", year: 2025, quantity: 200 },
+  { key: "elder", species: "Sambucus", common: "Elderberry", source: "Mill pond thicket", year: 2025, quantity: 350 },
+  { key: "susan", species: "Rudbeckia hirta", common: "Black-eyed Susan", source: "Bramblewick stock beds", year: 2025, quantity: 1000 },
+  { key: "thistle", species: "Silybum marianum", common: "Milk thistle", source: "Heathside Herbs", year: 2024, quantity: 300 },
+] as const;
+
+export type DemoState = "planned" | "chilling" | "window_open" | "overdue" | "pulled" | "sown" | "discarded";
+
+/** About 30 bags in every state. `daysIn` places a chilling bag that many days after its start. */
+export const demoBags: Array<{
+  lot: (typeof demoLots)[number]["key"];
+  state: DemoState;
+  store: (typeof demoStores)[number]["key"];
+  box: string;
+  medium: "paper_towel" | "sand" | "vermiculite" | "peat";
+  seeds: number;
+  daysIn?: number;
+  mouldSpots?: boolean;
+  firstRoots?: boolean;
+  trialArm?: "fridge" | "freezer";
+  germinated?: number;
+}> = [
+  { lot: "milkweed", state: "chilling", store: "barn", box: "Box A", medium: "paper_towel", seeds: 50, daysIn: 6 },
+  { lot: "milkweed", state: "window_open", store: "barn", box: "Box A", medium: "paper_towel", seeds: 50, firstRoots: true },
+  { lot: "milkweed", state: "sown", store: "barn", box: "Box A", medium: "sand", seeds: 60, germinated: 41 },
+  { lot: "showy", state: "chilling", store: "barn", box: "Box A", medium: "paper_towel", seeds: 40, daysIn: 9 },
+  { lot: "showy", state: "window_open", store: "barn", box: "Box B", medium: "vermiculite", seeds: 40 },
+  { lot: "narrowleaf", state: "chilling", store: "barn", box: "Box B", medium: "paper_towel", seeds: 40, daysIn: 20, mouldSpots: true },
+  { lot: "narrowleaf", state: "overdue", store: "barn", box: "Box B", medium: "sand", seeds: 40 },
+  { lot: "coneflower", state: "sown", store: "barn", box: "Box C", medium: "paper_towel", seeds: 50, trialArm: "fridge", germinated: 37 },
+  { lot: "coneflower", state: "sown", store: "freezer", box: "Basket 1", medium: "paper_towel", seeds: 50, trialArm: "freezer", germinated: 24 },
+  { lot: "coneflower", state: "chilling", store: "shed", box: "Top shelf", medium: "paper_towel", seeds: 100, daysIn: 12 },
+  { lot: "coneflower", state: "window_open", store: "shed", box: "Top shelf", medium: "vermiculite", seeds: 100 },
+  { lot: "indigo", state: "chilling", store: "barn", box: "Box C", medium: "sand", seeds: 30, daysIn: 35 },
+  { lot: "indigo", state: "planned", store: "barn", box: "Box C", medium: "sand", seeds: 30 },
+  { lot: "lavender", state: "chilling", store: "shed", box: "Crisper", medium: "paper_towel", seeds: 80, daysIn: 14 },
+  { lot: "lavender", state: "window_open", store: "shed", box: "Crisper", medium: "paper_towel", seeds: 80 },
+  { lot: "lavender", state: "discarded", store: "shed", box: "Crisper", medium: "peat", seeds: 80 },
+  { lot: "stjohns", state: "chilling", store: "shed", box: "Crisper", medium: "paper_towel", seeds: 200, daysIn: 10 },
+  { lot: "stjohns", state: "pulled", store: "shed", box: "Crisper", medium: "paper_towel", seeds: 200 },
+  { lot: "strawberry", state: "chilling", store: "barn", box: "Box B", medium: "sand", seeds: 120, daysIn: 40 },
+  { lot: "strawberry", state: "chilling", store: "barn", box: "Box B", medium: "sand", seeds: 120, daysIn: 3 },
+  { lot: "strawberry", state: "overdue", store: "barn", box: "Box C", medium: "sand", seeds: 120 },
+  { lot: "ramps", state: "chilling", store: "barn", box: "Box C", medium: "peat", seeds: 60, daysIn: 25 },
+  { lot: "ramps", state: "window_open", store: "barn", box: "Box C", medium: "peat", seeds: 60 },
+  { lot: "ramps", state: "planned", store: "barn", box: "Box A", medium: "peat", seeds: 60 },
+  { lot: "elder", state: "chilling", store: "barn", box: "Box A", medium: "sand", seeds: 90, daysIn: 50 },
+  { lot: "elder", state: "planned", store: "barn", box: "Box A", medium: "sand", seeds: 90 },
+  { lot: "milkweed", state: "discarded", store: "barn", box: "Box B", medium: "paper_towel", seeds: 50 },
+  { lot: "showy", state: "pulled", store: "barn", box: "Box A", medium: "paper_towel", seeds: 40 },
+  { lot: "showy", state: "planned", store: "freezer", box: "Basket 1", medium: "paper_towel", seeds: 40 },
+  { lot: "narrowleaf", state: "sown", store: "barn", box: "Box B", medium: "paper_towel", seeds: 40, germinated: 27 },
+];
+
+export const demoPlan = [
+  { lot: "coneflower", targetPlants: 400, weeks: -8, place: "indoor" },
+  { lot: "milkweed", targetPlants: 250, weeks: -6, place: "indoor" },
+  { lot: "indigo", targetPlants: 60, weeks: -4, place: "outdoor" },
+  { lot: "strawberry", targetPlants: 150, weeks: -10, place: "indoor" },
+  { lot: "elder", targetPlants: 40, weeks: 0, place: "outdoor" },
+] as const;
