@@ -1,7 +1,6 @@
-// A fake camera for Chromium: a Y4M video whose frames show a QR code drawn from the `qrcode` package's
-// module matrix (the same package that prints the labels). Chromium plays it as the camera with
-// --use-file-for-fake-video-capture. The luminance frame is also what the QR decode benchmark reads.
-import fs from "node:fs";
+// A camera frame showing a label's QR code, drawn from the `qrcode` package's module matrix (the package that
+// prints the labels): the grey-scale (Y) plane the QR decode benchmark reads. The browser suites' fake camera
+// video is written by qr-camera.ts from the label actually printed.
 import QRCode from "qrcode";
 
 export const FRAME_WIDTH = 640;
@@ -28,21 +27,4 @@ export function qrFrameLuma(text: string, opts: { width?: number; height?: numbe
     }
   }
   return luma;
-}
-
-/** Writes a Y4M file (4:2:0, grey chroma) repeating the frame; Chromium loops it. */
-export function writeY4m(file: string, luma: Uint8Array, opts: { width?: number; height?: number; frames?: number } = {}): string {
-  const width = opts.width ?? FRAME_WIDTH;
-  const height = opts.height ?? FRAME_HEIGHT;
-  const chroma = Buffer.alloc((width / 2) * (height / 2) * 2, 128);
-  const frame = Buffer.concat([Buffer.from("FRAME\n"), Buffer.from(luma), chroma]);
-  const frames = opts.frames ?? 10;
-  const header = Buffer.from(`YUV4MPEG2 W${width} H${height} F10:1 Ip A1:1 C420jpeg\n`);
-  fs.writeFileSync(file, Buffer.concat([header, ...Array.from({ length: frames }, () => frame)]));
-  return file;
-}
-
-/** A fake-camera video showing `text` as a QR code. */
-export function writeQrVideo(file: string, text: string): string {
-  return writeY4m(file, qrFrameLuma(text));
 }
