@@ -193,7 +193,7 @@ export async function seed(knex: Knex): Promise<void> {
         id: randomUUID(), season, species: lot.species === "Sambucus" ? "Sambucus canadensis" : lot.species, lot_id: lotIds[item.lot],
         protocol_id: protocolFor(lot.species)?.id ?? null, target_plants: item.targetPlants,
         sowing_rule: JSON.stringify({ anchor: "frost", weeks: item.weeks, place: item.place }),
-        expected_germination: null, expected_survival: 0.8, bag_id: null, note: null, ...stamp(),
+        expected_germination: item.expectedGermination, expected_survival: 0.8, bag_id: null, note: null, ...stamp(),
       });
     }
 

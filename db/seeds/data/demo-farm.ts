@@ -86,9 +86,10 @@ export const demoBags: Array<{
 ];
 
 export const demoPlan = [
-  { lot: "coneflower", targetPlants: 400, weeks: -8, place: "indoor" },
-  { lot: "milkweed", targetPlants: 250, weeks: -6, place: "indoor" },
-  { lot: "indigo", targetPlants: 60, weeks: -4, place: "outdoor" },
-  { lot: "strawberry", targetPlants: 150, weeks: -10, place: "indoor" },
-  { lot: "elder", targetPlants: 40, weeks: 0, place: "outdoor" },
+  // expectedGermination null = let the farm's own counts (Wilson lower bound) decide; numbers are invented for the demo.
+  { lot: "coneflower", targetPlants: 400, weeks: -8, place: "indoor", expectedGermination: null },
+  { lot: "milkweed", targetPlants: 250, weeks: -6, place: "indoor", expectedGermination: null },
+  { lot: "indigo", targetPlants: 60, weeks: -4, place: "outdoor", expectedGermination: 0.5 },
+  { lot: "strawberry", targetPlants: 150, weeks: -10, place: "indoor", expectedGermination: 0.6 },
+  { lot: "elder", targetPlants: 40, weeks: 0, place: "outdoor", expectedGermination: 0.4 },
 ] as const;
