@@ -34,7 +34,11 @@ function record(r: Omit<Row, "ratio"> & { higherIsBetter?: boolean }) {
 }
 
 const fmt = (n: number) => (n >= 100 ? n.toFixed(0) : n >= 10 ? n.toFixed(1) : n.toFixed(2));
-const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
+const median = (xs: number[]) => {
+  const s = [...xs].sort((a, b) => a - b);
+  const mid = Math.floor(s.length / 2);
+  return s.length % 2 ? s[mid] : (s[mid - 1] + s[mid]) / 2;
+};
 const time = async (fn: () => unknown | Promise<unknown>) => {
   const t = performance.now();
   await fn();
@@ -258,7 +262,7 @@ const BAGS = 10_000;
 async function benchToday() {
   const { RimebookDB } = await import("@/lib/client/db");
   const { loadFarmRows, loadLastChecks } = await import("@/lib/client/fridge-reads");
-  const { buildRoundFromRows, cadenceFor } = await import("@/components/today/round-input");
+  const { buildRoundFromRows, cadenceFor } = await import("@/lib/domain/rows/round-input");
   const { formatIsoDay } = await import("@/lib/domain/dates");
 
   // Real row shapes: the demo farm pulled through the pull handler, then its bags cloned to 10,000.
