@@ -31,7 +31,7 @@ import {
   type BagFilters,
   type BagRow,
   type BagSortKey,
-} from "./bag-rows";
+} from "@/lib/domain/rows/bag-rows";
 import { formatShortDay } from "./format-day";
 import { useBagSources, useToday } from "./use-farm-rows";
 import { useMember } from "@/components/season/use-member";

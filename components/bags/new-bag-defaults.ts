@@ -3,7 +3,7 @@ import type { Store } from "@/lib/schemas/store";
 import type { ProtocolRow } from "@/lib/client/db";
 import type { Medium } from "@/lib/schemas/vocabulary";
 import { computePullWindow, generateBagCode, normalizeCrockford, type IsoDay } from "@/lib/domain";
-import { matchProtocolBySpecies, readProtocolRow } from "@/components/protocols/protocol-row";
+import { matchProtocolBySpecies, readProtocolRow } from "@/lib/domain/rows/protocol-row";
 
 // What the new-bag form fills in by itself from a lot, a protocol and the farm's stores. Pure, so it is tested
 // without a browser; the form calls these on every change of lot, protocol, start date or store.

@@ -4,7 +4,7 @@ import { useEffect, useState } from "react";
 import { useLiveQuery } from "dexie-react-hooks";
 import { getLocalDb } from "@/lib/client/db";
 import { formatIsoDay, type IsoDay } from "@/lib/domain";
-import type { BagRowSources } from "./bag-rows";
+import type { BagRowSources } from "@/lib/domain/rows/bag-rows";
 
 // Live reads of the phone store for the bag, lot and protocol screens. Writes never happen here.
 

@@ -23,7 +23,7 @@ import { Field, Input, TextArea } from "@/components/ui/Field";
 import { Segmented } from "@/components/ui/Segmented";
 import { StateBadge } from "@/components/ui/StateBadge";
 import { formatShortDay } from "@/components/bags/format-day";
-import { cadenceFor } from "@/components/today/round-input";
+import { cadenceFor } from "@/lib/domain/rows/round-input";
 import { allGoodDraft, markAllGood, planCheckSave, previewCheck, toggleAction, type CheckDraft, type CheckSavePlan } from "./check-draft";
 import { compressPhoto } from "./compress-photo";
 import { describeSheet, formatPullWindow } from "./sheet-view";

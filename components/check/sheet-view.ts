@@ -1,5 +1,5 @@
-import { buildBagRows, type BagRow } from "@/components/bags/bag-rows";
-import { findNextMoveOn } from "@/components/today/round-input";
+import { buildBagRows, type BagRow } from "@/lib/domain/rows/bag-rows";
+import { findNextMoveOn } from "@/lib/domain/rows/round-input";
 import type { IsoDay } from "@/lib/domain/dates";
 import type { PullWindow } from "@/lib/domain/schedule";
 import type { BagForSheet } from "@/lib/client/fridge-reads";

@@ -3,7 +3,7 @@
 import { useSearchParams } from "next/navigation";
 import { useMemo, useState } from "react";
 import { useLiveQuery } from "dexie-react-hooks";
-import { buildBagRows, type BagRow } from "@/components/bags/bag-rows";
+import { buildBagRows, type BagRow } from "@/lib/domain/rows/bag-rows";
 import { Button } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
 import { cautionTexts } from "@/components/ui/Caution";

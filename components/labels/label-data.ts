@@ -1,5 +1,5 @@
 import QRCode from "qrcode";
-import type { BagRow } from "@/components/bags/bag-rows";
+import type { BagRow } from "@/lib/domain/rows/bag-rows";
 import { formatLongDay, formatShortDay } from "@/components/bags/format-day";
 import { pickBagCautions } from "@/components/check/bag-cautions";
 import { formatPullWindow } from "@/components/check/sheet-view";

@@ -16,7 +16,7 @@ import { Caution, cautionTexts } from "@/components/ui/Caution";
 import { useMember } from "@/components/season/use-member";
 import { useBagSources } from "@/components/bags/use-farm-rows";
 import { describeSaveError } from "@/components/bags/save-error";
-import { matchProtocolBySpecies } from "@/components/protocols/protocol-row";
+import { matchProtocolBySpecies } from "@/lib/domain/rows/protocol-row";
 import { emptyToNull, numberOrNull, pickChanged } from "@/components/bags/form-values";
 import { SaveError } from "@/components/bags/FormBits";
 

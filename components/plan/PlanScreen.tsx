@@ -22,7 +22,7 @@ import { describeSaveError } from "@/components/bags/save-error";
 import { useMember } from "@/components/season/use-member";
 import { describeMonthDay } from "@/components/settings/frost-date";
 import { computePlanRow, pickPlanProtocol, summarizeSpeciesHistory, type PlanRowResult } from "./plan-rows";
-import { readProtocolRow } from "@/components/protocols/protocol-row";
+import { readProtocolRow } from "@/lib/domain/rows/protocol-row";
 import { layOutTimeline } from "./timeline";
 import { PlanItemForm } from "./PlanItemForm";
 import { SeasonTimeline } from "./SeasonTimeline";

@@ -9,7 +9,7 @@ import type { Sowing } from "@/lib/schemas/sowing";
 import type { Count } from "@/lib/schemas/count";
 import type { ProtocolRow } from "@/lib/client/db";
 import { findFinalTotal } from "@/components/counts/count-series";
-import { matchProtocolBySpecies } from "@/components/protocols/protocol-row";
+import { matchProtocolBySpecies } from "@/lib/domain/rows/protocol-row";
 
 // Pure wiring from a plan row (as stored on the phone) to lib/domain's planSeason.
 

@@ -18,7 +18,7 @@ import { Field, Input, Select, TextArea } from "@/components/ui/Field";
 import { useMember } from "@/components/season/use-member";
 import { describeSaveError } from "@/components/bags/save-error";
 import { blankPhase, blankSource, fromFormValues, toFormValues, type ProtocolFormValues } from "./protocol-form-values";
-import { readProtocolRow } from "./protocol-row";
+import { readProtocolRow } from "@/lib/domain/rows/protocol-row";
 import { numberOrNull } from "@/components/bags/form-values";
 import { SaveError } from "@/components/bags/FormBits";
 

@@ -15,7 +15,7 @@ import { Caution, cautionTexts } from "@/components/ui/Caution";
 import { useMember } from "@/components/season/use-member";
 import { describeSaveError } from "@/components/bags/save-error";
 import { copyToFarmOwn } from "./protocol-form-values";
-import { findStarterFor, readProtocolRow } from "./protocol-row";
+import { findStarterFor, readProtocolRow } from "@/lib/domain/rows/protocol-row";
 import { OriginBadge } from "./OriginBadge";
 import { SaveError } from "@/components/bags/FormBits";
 

@@ -2,7 +2,7 @@ import type { ProtocolInput, ProtocolPhase, ProtocolSource, TemperatureBand, Tox
 import type { PhaseKind } from "@/lib/schemas/vocabulary";
 import type { ProtocolRow } from "@/lib/client/db";
 import { isTimedPhase } from "@/lib/domain/protocols";
-import { readProtocolRow } from "./protocol-row";
+import { readProtocolRow } from "@/lib/domain/rows/protocol-row";
 
 // The protocol form edits numbers as fields that may be blank; the shared Protocol schema wants numbers or null.
 // These two functions translate between them, and copying a starter row makes the farm's own editable copy.

@@ -16,7 +16,7 @@ import { StateBadge } from "@/components/ui/StateBadge";
 import { useMember } from "@/components/season/use-member";
 import { useToday } from "@/components/bags/use-farm-rows";
 import { formatShortDay as formatDay, formatStamp } from "@/components/bags/format-day";
-import { readProtocolRow } from "@/components/protocols/protocol-row";
+import { readProtocolRow } from "@/lib/domain/rows/protocol-row";
 import { buildChartPoints, describeBand, measureBagCold, measureStore } from "./store-metrics";
 import { ReadingsChart } from "./ReadingsChart";
 import { ReadingEntry } from "./ReadingForm";

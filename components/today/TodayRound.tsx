@@ -12,7 +12,7 @@ import { buttonClass } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
 import { StateBadge } from "@/components/ui/StateBadge";
 import { formatShortDay } from "@/components/bags/format-day";
-import { buildRoundFromRows, cadenceFor, chipKindOf, countStoreBags, summarizeRound, urgentChipKinds } from "./round-input";
+import { buildRoundFromRows, cadenceFor, chipKindOf, countStoreBags, summarizeRound, urgentChipKinds } from "@/lib/domain/rows/round-input";
 import { ScanGlyph } from "./ScanGlyph";
 
 // Today: the bags due for a check, worked out on the phone from the phone store (works with no signal).

@@ -14,7 +14,7 @@ import { Card, PageHeader } from "@/components/ui/Card";
 import { StateBadge } from "@/components/ui/StateBadge";
 import { describeSaveError } from "@/components/bags/save-error";
 import { pickProtocolForLot } from "@/components/bags/new-bag-defaults";
-import { findBagWindow } from "@/components/bags/bag-rows";
+import { findBagWindow } from "@/lib/domain/rows/bag-rows";
 import { useToday } from "@/components/bags/use-farm-rows";
 import { useMember } from "@/components/season/use-member";
 import { assembleTrialTable, buildTrialProtocol } from "./trial-table";

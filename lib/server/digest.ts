@@ -1,7 +1,7 @@
 import "server-only";
 import type { Knex } from "knex";
-import { buildBagRows, type BagRowSources } from "@/components/bags/bag-rows";
-import { buildRoundFromRows, cadenceFor, type LastCheckRow } from "@/components/today/round-input";
+import { buildBagRows, type BagRowSources } from "@/lib/domain/rows/bag-rows";
+import { buildRoundFromRows, cadenceFor, type LastCheckRow } from "@/lib/domain/rows/round-input";
 import { findZonedDay, isKnownTimeZone } from "@/lib/domain/csv";
 import {
   addDaysToIsoDay,

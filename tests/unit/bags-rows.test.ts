@@ -11,7 +11,7 @@ import {
   type BagFilters,
   type BagRow,
   type BagSortKey,
-} from "@/components/bags/bag-rows";
+} from "@/lib/domain/rows/bag-rows";
 import { makeBag, makeLot, makeStarterRow, makeStore } from "./bags-fixtures";
 
 // Windows come from the starter rows and their published sources:

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { buildRoundFromRows, cadenceFor, dayOfTimestamp, summarizeRound, type LastCheckRow } from "@/components/today/round-input";
+import { buildRoundFromRows, cadenceFor, dayOfTimestamp, summarizeRound, type LastCheckRow } from "@/lib/domain/rows/round-input";
 import { starterProtocols } from "@/lib/domain/starter-protocols";
 import type { Bag } from "@/lib/schemas/bag";
 import type { Lot } from "@/lib/schemas/lot";

@@ -1,5 +1,5 @@
-import { buildBagRows, type BagRow, type BagRowSources } from "@/components/bags/bag-rows";
-import { readProtocolRow } from "@/components/protocols/protocol-row";
+import { buildBagRows, type BagRow, type BagRowSources } from "@/lib/domain/rows/bag-rows";
+import { readProtocolRow } from "@/lib/domain/rows/protocol-row";
 import { formatIsoDay, type IsoDay } from "@/lib/domain/dates";
 import { buildTodaysRound, type RoundBag, type TodaysRound } from "@/lib/domain/round";
 import { defaultCheckCadence, planBagPhases, type CheckCadence, type CheckFindings, type NextCheckReason } from "@/lib/domain/schedule";

@@ -12,7 +12,7 @@ import {
   type IsoDay,
   type PullWindow,
 } from "@/lib/domain";
-import { readProtocolRow } from "@/components/protocols/protocol-row";
+import { readProtocolRow } from "@/lib/domain/rows/protocol-row";
 
 // Pure helpers behind the bags table: one row per bag with its state and window worked out on the phone
 // (never stored), plus the filter chips and the sort orders. No React here, so tests run without a DOM.
