@@ -39,7 +39,8 @@ export const PHONE = {
 export async function phoneContext(browser: Browser, origin: string, opts: { camera?: boolean } = {}): Promise<BrowserContext> {
   const context = await browser.newContext({ ...PHONE, baseURL: origin, serviceWorkers: "allow", locale: "en-GB", timezoneId: "UTC" });
   if (opts.camera) await context.grantPermissions(["camera"], { origin });
-  context.setDefaultTimeout(15_000);
+  // Generous: CI runs several browser suites and servers at once on two cores.
+  context.setDefaultTimeout(30_000);
   return context;
 }
 
