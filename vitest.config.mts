@@ -12,7 +12,8 @@ export default defineConfig({
   test: {
     include: ["tests/unit/**/*.test.ts", "tests/api/**/*.test.ts", "tests/e2e/**/*.test.ts"],
     environment: "node",
-    testTimeout: 30_000,
+    // Real-browser journeys run several screens per test, side by side on two cores; unit tests finish in milliseconds.
+    testTimeout: 120_000,
     hookTimeout: 120_000,
     pool: "forks",
     fileParallelism: true,
