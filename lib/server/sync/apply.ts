@@ -1,4 +1,5 @@
 import "server-only";
+import { replaceProtocolSources } from "@/lib/server/protocols";
 import { randomUUID } from "node:crypto";
 import type { Knex } from "knex";
 import { ZodError } from "zod";
@@ -178,7 +179,7 @@ async function insertRow(ctx: Ctx, table: EffectTable, row: RowValues): Promise<
   const stamped: Record<string, unknown> = { ...row, farm_id: member.farmId, created_at: at, updated_at: at, seq, deleted_at: null };
   if (table === "checks") stamped.checked_by = member.userId;
   await trx(table).insert(serializeRow(table, stamped));
-  if (table === "protocols") await replaceProtocolSources(ctx, row.id, row.phases as ProtocolPhase[], seq);
+  if (table === "protocols") await replaceProtocolSources(ctx.trx, { farmId: ctx.member.farmId, protocolId: row.id, phases: row.phases as ProtocolPhase[], seq: seq, at: ctx.at });
 }
 
 /** Later arrival wins field by field; each value it replaces is kept in audit_log. */
@@ -205,7 +206,7 @@ async function patchRow(ctx: Ctx, table: EffectTable, stored: Record<string, unk
       seq,
     })),
   );
-  if (table === "protocols" && "phases" in values) await replaceProtocolSources(ctx, String(stored.id), values.phases as ProtocolPhase[], seq);
+  if (table === "protocols" && "phases" in values) await replaceProtocolSources(ctx.trx, { farmId: ctx.member.farmId, protocolId: String(stored.id), phases: values.phases as ProtocolPhase[], seq: seq, at: ctx.at });
 }
 
 async function patchFarm(ctx: Ctx, fields: Record<string, unknown>): Promise<void> {
@@ -222,20 +223,6 @@ async function patchFarm(ctx: Ctx, fields: Record<string, unknown>): Promise<voi
       old_value: auditText(farm[field]), new_value: auditText(value), mutation_id: ctx.mutationId, user_id: member.userId, at, seq,
     })),
   );
-}
-
-/** protocol_sources is derived from the phases (searchable sources); old rows are tombstoned. */
-async function replaceProtocolSources(ctx: Ctx, protocolId: string, phases: ProtocolPhase[], seq: number): Promise<void> {
-  const { trx, member, at } = ctx;
-  await trx("protocol_sources").where({ protocol_id: protocolId }).whereNull("deleted_at").update({ deleted_at: at, updated_at: at, seq });
-  const rows = phases.flatMap((phase, phaseIndex) =>
-    phase.sources.map((s) => ({
-      id: randomUUID(), farm_id: member.farmId, created_at: at, updated_at: at, seq, deleted_at: null,
-      protocol_id: protocolId, phase_index: phaseIndex, citation: s.citation, min_days: s.minDays, max_days: s.maxDays,
-      band_min_c: s.band?.minC ?? null, band_max_c: s.band?.maxC ?? null, note: s.note || null,
-    })),
-  );
-  if (rows.length) await trx("protocol_sources").insert(rows);
 }
 
 const tableLabels: Record<EffectTable, string> = {
