@@ -1,6 +1,5 @@
 import "server-only";
 import { replaceProtocolSources } from "@/lib/server/protocols";
-import { randomUUID } from "node:crypto";
 import type { Knex } from "knex";
 import { ZodError } from "zod";
 import { AppError, notFound } from "@/lib/errors";
