@@ -47,6 +47,36 @@ function demoBag() {
   )[0];
 }
 
+/** Waits for the scanner to open the bag's sheet; on failure says what the scan screen showed. */
+async function waitForSheet(page: Page, bagId: string, errors: string[]) {
+  try {
+    await page.waitForURL(new RegExp(`/check\\?bag=${bagId}`), { timeout: 45_000 });
+  } catch (e) {
+    await shoot(page, "fridge-scan-stuck");
+    const text = async (id: string) => ((await page.getByTestId(id).count()) ? await page.getByTestId(id).first().textContent() : "(none)");
+    const seen = {
+      url: page.url(),
+      notice: await text("scan-notice"),
+      cameraTrouble: await text("camera-trouble"),
+      phoneHasBag: await page.evaluate(
+        (id) =>
+          new Promise<boolean>((resolve) => {
+            const open = indexedDB.open("rimebook");
+            open.onerror = () => resolve(false);
+            open.onsuccess = () => {
+              const get = open.result.transaction("bags", "readonly").objectStore("bags").get(id);
+              get.onsuccess = () => resolve(Boolean(get.result));
+              get.onerror = () => resolve(false);
+            };
+          }),
+        bagId,
+      ),
+      errors,
+    };
+    throw new Error(`The scanner did not open the bag's sheet: ${JSON.stringify(seen)}`, { cause: e });
+  }
+}
+
 type CheckRow = { moisture: string; mould: string; sprouts: string; actions: string };
 const checksOf = (bagId: string) =>
   queryServer<CheckRow>(app.databaseFile, `SELECT moisture, mould, sprouts, actions FROM checks WHERE bag_id = ? ORDER BY checked_at DESC`, bagId);
@@ -95,7 +125,7 @@ describe("scan a printed label and save a check with one tap", () => {
 
     await context.setOffline(true);
     await page.getByRole("link", { name: /scan a bag/i }).click();
-    await page.waitForURL(new RegExp(`/check\\?bag=${bag.id}`), { timeout: 20_000 });
+    await waitForSheet(page, bag.id, errors);
     await page.getByTestId("bag-header").waitFor();
     await expect(page.getByTestId("bag-header").textContent()).resolves.toContain(`${bag.code.slice(0, 3)}-${bag.code.slice(3)}`);
     await shoot(page, "fridge-03-check-sheet");
