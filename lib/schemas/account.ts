@@ -40,9 +40,13 @@ export const LinkToken = z
 export const SignUpInput = z.object({ email: Email, password: NewPassword, name: PersonName, farmName: FarmName });
 export type SignUpInput = z.infer<typeof SignUpInput>;
 
+/** A password the person types to prove who they are (any length they chose back then). */
+const enteredPassword = (error: string) =>
+  z.string({ error }).min(1, { error }).max(200, { error: "Keep the password under 200 characters." });
+
 export const SignInInput = z.object({
   email: Email,
-  password: z.string({ error: "Enter your password." }).min(1, { error: "Enter your password." }).max(200),
+  password: enteredPassword("Enter your password."),
   /** Members of more than one farm may pick which to open; otherwise the first farm they joined. */
   farmId: z.uuid().optional(),
 });
@@ -64,7 +68,7 @@ export type InviteInput = z.infer<typeof InviteInput>;
 export const InviteAcceptInput = z.object({
   token: LinkToken,
   name: PersonName.optional(),
-  password: z.string({ error: "Enter a password." }).min(1, { error: "Enter a password." }).max(200, { error: "Keep the password under 200 characters." }),
+  password: enteredPassword("Enter a password."),
 });
 export type InviteAcceptInput = z.infer<typeof InviteAcceptInput>;
 
@@ -75,3 +79,21 @@ export const RoleChangeInput = z.object({ role: Role });
 export type RoleChangeInput = z.infer<typeof RoleChangeInput>;
 
 export const SwitchFarmInput = z.object({ farmId: z.uuid({ error: "Pick a farm." }) });
+
+/** A signed-in person renames themselves (their team sees the new name on every farm). */
+export const ProfileInput = SignUpInput.pick({ name: true });
+export type ProfileInput = z.infer<typeof ProfileInput>;
+
+const ChangePasswordFields = z.object({ currentPassword: enteredPassword("Enter your current password."), newPassword: NewPassword });
+const differsFromCurrent = (v: { currentPassword: string; newPassword: string }) => v.currentPassword !== v.newPassword;
+const differsMessage = { path: ["newPassword"], error: "The new password is the same as the current one. Choose a different one." };
+
+/** Change password while signed in: the server's request. */
+export const ChangePasswordInput = ChangePasswordFields.refine(differsFromCurrent, differsMessage);
+export type ChangePasswordInput = z.infer<typeof ChangePasswordInput>;
+
+/** The Settings form adds the repeated new password, checked on the phone only. */
+export const ChangePasswordForm = ChangePasswordFields.extend({ repeatPassword: z.string() })
+  .refine(differsFromCurrent, differsMessage)
+  .refine((v) => v.newPassword === v.repeatPassword, { path: ["repeatPassword"], error: "The two new passwords are not the same. Type the new one again." });
+export type ChangePasswordForm = z.infer<typeof ChangePasswordForm>;

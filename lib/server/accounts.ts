@@ -8,6 +8,7 @@ import { hashPassword, verifyPassword } from "./passwords";
 import { installStarterProtocols } from "./protocols";
 import { assertSignInAllowed, recordSignInAttempt } from "./rate-limit";
 import { nextSeq } from "./seq";
+import { revokeAllSessions } from "./sessions";
 
 // Farms, people and their memberships. Writers take the transaction first.
 
@@ -98,4 +99,47 @@ export async function authenticate(
 
 export async function setPassword(trx: Knex.Transaction, userId: string, password: string, now = new Date()): Promise<void> {
   await trx("users").where({ id: userId }).update({ password_hash: await hashPassword(password), updated_at: now.toISOString() });
+}
+
+export const wrongCurrentPassword = () =>
+  new AppError("invalid", "The current password is not right, so the password was not changed.", {
+    currentPassword: "That is not your current password. Check it, or sign out and use “Forgot your password?”.",
+  }, 400);
+
+/**
+ * Proves the signed-in person knows their password before it changes. Wrong tries count toward the
+ * same per-account and per-address lock as sign-in, so a borrowed phone gives no extra guesses.
+ */
+export async function confirmCurrentPassword(db: Knex, input: { userId: string; email: string; password: string; ip: string }, now = new Date()): Promise<void> {
+  const keys = { email: input.email.trim().toLowerCase(), ip: input.ip };
+  await assertSignInAllowed(db, keys, now, "Too many wrong passwords.");
+  const user: UserRow | undefined = await db("users").where({ id: input.userId }).whereNull("deleted_at").first();
+  const ok = !!user && (await verifyPassword(input.password, user.password_hash));
+  await recordSignInAttempt(db, keys, ok, now);
+  if (!ok) throw wrongCurrentPassword();
+}
+
+/**
+ * Sets a new password and ends every other session of the person (every phone, every farm); the
+ * session that asked stays signed in. Open reset links stop working too. Returns how many ended.
+ */
+export async function changePassword(trx: Knex.Transaction, input: { userId: string; keepSessionId: string; password: string }, now = new Date()): Promise<number> {
+  await setPassword(trx, input.userId, input.password, now);
+  await trx("password_resets").where({ user_id: input.userId }).whereNull("used_at").update({ used_at: now.toISOString() });
+  return revokeAllSessions(trx, input.userId, { exceptSessionId: input.keepSessionId, now });
+}
+
+/**
+ * Renames the person. Their membership rows are stamped with a new seq on every farm, so each
+ * team list (synced to the phones) picks up the new name on the next pull.
+ */
+export async function updateDisplayName(trx: Knex.Transaction, userId: string, name: string, now = new Date()): Promise<string> {
+  const at = now.toISOString();
+  const clean = name.trim();
+  await trx("users").where({ id: userId }).update({ name: clean, updated_at: at });
+  const memberships: { id: string; farm_id: string }[] = await trx("memberships").where({ user_id: userId }).whereNull("deleted_at").select("id", "farm_id");
+  for (const m of memberships) {
+    await trx("memberships").where({ id: m.id }).update({ seq: await nextSeq(trx, m.farm_id), updated_at: at });
+  }
+  return clean;
 }

@@ -78,13 +78,17 @@ export async function revokeSession(db: Knex | Knex.Transaction, sessionId: stri
   await db("sessions").where({ id: sessionId }).whereNull("revoked_at").update({ revoked_at: now.toISOString() });
 }
 
-/** "Sign out everywhere"; with farmId, only that farm's sessions (a member removed from one farm). */
+/**
+ * "Sign out everywhere"; with farmId, only that farm's sessions (a member removed from one farm);
+ * with exceptSessionId, every session but that one (a password change keeps the phone that made it).
+ */
 export async function revokeAllSessions(
   db: Knex | Knex.Transaction,
   userId: string,
-  opts: { farmId?: string; now?: Date } = {},
+  opts: { farmId?: string; exceptSessionId?: string; now?: Date } = {},
 ): Promise<number> {
   const q = db("sessions").where({ user_id: userId }).whereNull("revoked_at");
   if (opts.farmId) q.andWhere({ farm_id: opts.farmId });
+  if (opts.exceptSessionId) q.andWhereNot({ id: opts.exceptSessionId });
   return q.update({ revoked_at: (opts.now ?? new Date()).toISOString() });
 }
