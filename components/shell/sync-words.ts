@@ -62,6 +62,7 @@ export const mutationWords: Record<MutationName, string> = {
   "count.record": "Germination count",
   "trial.create": "New trial",
   "trial.update": "Trial edit",
+  "trial.delete": "Trial removed",
   "plan.upsert": "Plan item",
   "plan.delete": "Plan item removed",
 };

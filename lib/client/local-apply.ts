@@ -53,6 +53,7 @@ export async function applyEffectsLocally(db: RimebookDB, effects: Effect[], s: 
       }
       case "tombstone":
         await db.table(e.table).delete(e.id);
+        if (e.with) await db.table(e.with.table).where(e.with.column).equals(e.id).delete();
         break;
       case "farm": {
         const identity = (await db.meta.get(META.identity))?.value as PhoneIdentity | undefined;

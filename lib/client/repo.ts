@@ -1,5 +1,6 @@
 import type { z } from "zod";
 import { AppError } from "@/lib/errors";
+import { assertStoreCanBeDeleted } from "@/lib/domain/store-rules";
 import { effectsOf } from "@/lib/schemas/mutation-effects";
 import { canRun, mutationTable, type MutationArgs, type MutationName } from "@/lib/schemas/mutations";
 import type { BagInput, BagPatch } from "@/lib/schemas/bag";
@@ -36,12 +37,21 @@ export async function runMutation<N extends MutationName>(name: N, input: InputO
     const identity = await readMeta<PhoneIdentity>(db, META.identity);
     if (!identity) throw new AppError("unauthenticated", "Sign in on this phone first; nothing was saved.", undefined, 401);
     if (!canRun(identity.role, name)) throw new AppError("forbidden", "Your role on this farm does not allow that.", undefined, 403);
+    await localGuards[name]?.(db, args as never);
     await applyEffectsLocally(db, effectsOf(name, args), { farmId: identity.farm.id, userId: identity.user.id, at });
     await db.outbox.add({ id: newId(), name, args, at, status: "pending", tries: 0 });
   });
   nudgeSync();
   return args;
 }
+
+/** Rules a mutation must pass on the phone before it is written (the server runs the same lib/domain rule). */
+const localGuards: { [N in MutationName]?: (db: RimebookDB, args: MutationArgs<N>) => Promise<void> } = {
+  "store.delete": async (db, { id }) => {
+    const store = await db.stores.get(id);
+    if (store) assertStoreCanBeDeleted(store.name, await db.bags.where("store_id").equals(id).toArray());
+  },
+};
 
 // Farm and member
 export const updateFarmSettings = (patch: Partial<FarmSettings>) => runMutation("farm.update", patch);
@@ -79,6 +89,8 @@ export const recordCount = (input: New<CountInput>) => runMutation("count.record
 export const createTrial = (input: Omit<New<TrialInput>, "arms"> & { arms: (Omit<TrialInput["arms"][number], "id"> & { id?: string })[] }) =>
   runMutation("trial.create", { ...input, id: input.id ?? newId(), arms: input.arms.map((a) => ({ ...a, id: a.id ?? newId() })) });
 export const updateTrial = (id: string, patch: Partial<Omit<TrialInput, "id" | "arms">>) => runMutation("trial.update", { id, patch });
+/** Removes the trial and its arms; its bags stay, no longer compared. */
+export const deleteTrial = (id: string) => runMutation("trial.delete", { id });
 
 // Season plan
 export const savePlanItem = (input: New<PlanItemInput>) => runMutation("plan.upsert", { ...input, id: input.id ?? newId() });
@@ -106,6 +118,7 @@ export const repository = {
   "count.record": recordCount,
   "trial.create": createTrial,
   "trial.update": updateTrial,
+  "trial.delete": deleteTrial,
   "plan.upsert": savePlanItem,
   "plan.delete": deletePlanItem,
 } satisfies Record<MutationName, (...args: never[]) => Promise<unknown>>;

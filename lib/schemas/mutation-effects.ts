@@ -19,7 +19,8 @@ export type Effect =
   | { op: "upsert"; table: EffectTable; row: RowValues }
   /** Edit some fields of an existing row; later arrival wins per field. `fillOnly`: set only fields that are still empty. */
   | { op: "patch"; table: EffectTable; id: string; fields: Record<string, unknown>; fillOnly?: boolean }
-  | { op: "tombstone"; table: EffectTable; id: string }
+  /** Soft delete; `with`: rows pointing at it by `column` go with it (a trial's arms), never rows merely linked (bags). */
+  | { op: "tombstone"; table: EffectTable; id: string; with?: { table: EffectTable; column: string } }
   /** The farm's own settings (the farms row). */
   | { op: "farm"; fields: Record<string, unknown> }
   /** The signed-in member's own membership row. */
@@ -130,6 +131,8 @@ const builders: EffectBuilders = {
     })),
   ],
   "trial.update": (a) => [patch("trials", a)],
+  // The arms go with the trial; bags keep their arm id for history and simply stop being compared.
+  "trial.delete": (a) => [{ op: "tombstone", table: "trials", id: a.id, with: { table: "trial_arms", column: "trial_id" } }],
 
   "plan.upsert": (a) => [{ op: "upsert", table: "plan_items", row: { ...a } }],
   "plan.delete": (a) => [{ op: "tombstone", table: "plan_items", id: a.id }],

@@ -61,6 +61,7 @@ export const mutationTable = {
 
   "trial.create": { minRole: "grower", args: TrialInput },
   "trial.update": { minRole: "grower", args: patchOf(TrialInput.omit({ id: true, arms: true })) },
+  "trial.delete": { minRole: "grower", args: z.object({ id: Id }) },
 
   "plan.upsert": { minRole: "grower", args: PlanItemInput },
   "plan.delete": { minRole: "grower", args: z.object({ id: Id }) },

@@ -3,7 +3,10 @@ import { replaceProtocolSources } from "@/lib/server/protocols";
 import type { Knex } from "knex";
 import { ZodError } from "zod";
 import { AppError, notFound } from "@/lib/errors";
-import { canRun, mutationTable, type Mutation, type MutationName, type PushRequest } from "@/lib/schemas/mutations";
+import { canRun, mutationTable, type Mutation, type MutationArgs, type MutationName, type PushRequest } from "@/lib/schemas/mutations";
+import { computeGerminationPercent, convertToPerInterval } from "@/lib/domain/germination";
+import { countDaysBetween } from "@/lib/domain/dates";
+import { assertStoreCanBeDeleted } from "@/lib/domain/store-rules";
 import { effectsOf, rowReferences, sameValue, type Effect, type EffectTable, type RowValues } from "@/lib/schemas/mutation-effects";
 import type { ProtocolPhase } from "@/lib/schemas/protocol";
 import { vocabularyLabels, type Role } from "@/lib/schemas/vocabulary";
@@ -88,6 +91,7 @@ async function applyOne(db: Knex.Transaction, member: PushMember, deviceId: stri
     }
     await db.transaction(async (trx) => {
       const ctx: Ctx = { trx, member, mutationId: m.id, at, known };
+      await guards[m.name]?.(ctx, args as never);
       for (const effect of effectsOf(m.name, args as never)) await applyEffect(ctx, effect);
       await record(trx, "applied");
     });
@@ -109,6 +113,42 @@ async function applyOne(db: Knex.Transaction, member: PushMember, deviceId: stri
 function describe(name: MutationName): string {
   const [entity, verb] = name.split(".");
   return `${entity} ${verb}`.replace("plan ", "plan item ");
+}
+
+/** Rules of the trade a mutation must pass before its effects, the same lib/domain rules the phone runs. */
+const guards: { [N in MutationName]?: (ctx: Ctx, args: MutationArgs<N>) => Promise<void> } = {
+  "store.delete": async (ctx, { id }) => {
+    const store = await ownRow(ctx, "stores", id);
+    if (!store || store.deleted_at) return; // the tombstone reports a missing store; a second delete changes nothing
+    const bags = await ctx.trx("bags").where({ farm_id: ctx.member.farmId, store_id: id }).select("code", "pulled_on", "sown_on", "discarded_on", "deleted_at");
+    assertStoreCanBeDeleted(String(store.name), bags);
+  },
+  "count.record": checkCountRises,
+};
+
+/**
+ * A running total may not fall below the sowing's nearest earlier count, rise above a later one, nor pass the
+ * seeds sown (an offline phone may not have seen another phone's counts). A recount of the same day replaces it.
+ */
+async function checkCountRises(ctx: Ctx, count: MutationArgs<"count.record">): Promise<void> {
+  if (await ctx.trx("counts").where({ id: count.id }).first("id")) return; // the same count sent again: the first is kept
+  const sowing = await ctx.trx("sowings").where({ id: count.sowing_id, farm_id: ctx.member.farmId }).first("sown_on", "seeds_sown");
+  if (!sowing) return; // the insert reports the missing sowing
+  const nearest = (side: "<" | ">") =>
+    ctx.trx("counts")
+      .where({ sowing_id: count.sowing_id })
+      .whereNull("deleted_at")
+      .where("counted_on", side, count.counted_on)
+      .orderBy([{ column: "counted_on", order: side === "<" ? "desc" : "asc" }, { column: "created_at", order: "desc" }])
+      .first("counted_on", "germinated_total");
+  const before = await nearest("<");
+  const after = await nearest(">");
+  const day = (on: string) => countDaysBetween(sowing.sown_on, on);
+  // Neighbours on the sowing day itself are left out, as on the phone; the new count must be after sowing.
+  const neighbours = [before, after].filter((c): c is { counted_on: string; germinated_total: number } => !!c && day(c.counted_on) > 0);
+  const series = [...neighbours, count].map((c) => ({ day: day(c.counted_on), count: c.germinated_total }));
+  convertToPerInterval(series, "cumulative");
+  computeGerminationPercent(count.germinated_total, sowing.seeds_sown);
 }
 
 /** The row must be this farm's: a row of another farm is reported as missing, never as someone else's. */
@@ -147,7 +187,13 @@ async function applyEffect(ctx: Ctx, e: Effect): Promise<void> {
       const existing = await ownRow(ctx, e.table, e.id);
       if (!existing) throw notFound(labelOf(e.table));
       if (existing.deleted_at) return;
-      return patchRow(ctx, e.table, existing, { deleted_at: ctx.at }, false);
+      await patchRow(ctx, e.table, existing, { deleted_at: ctx.at }, false);
+      // Each dependent row gets its own seq, so other phones pull its tombstone too.
+      if (!e.with) return;
+      const { table, column } = e.with;
+      const dependents = await ctx.trx(table).where({ farm_id: ctx.member.farmId, [column]: e.id }).whereNull("deleted_at");
+      for (const row of dependents) await patchRow(ctx, table, row, { deleted_at: ctx.at }, false);
+      return;
     }
     case "farm":
       return patchFarm(ctx, e.fields);
