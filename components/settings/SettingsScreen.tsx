@@ -18,6 +18,7 @@ import { describeSaveError } from "@/components/bags/save-error";
 import { useMember } from "@/components/season/use-member";
 import { countDaysInMonth, describeMonthDay, joinMonthDay, monthNames, splitMonthDay } from "./frost-date";
 import { Notice } from "@/components/season/Notice";
+import { FarmSwitcherCard, PasswordCard, ProfileCard } from "./AccountCards";
 
 const FarmForm = FarmSettings.pick({ name: true, last_frost_date: true, location_note: true, temperature_unit: true, weekly_check_days: true, timezone: true });
 type FarmFormValues = z.input<typeof FarmForm>;
@@ -33,8 +34,11 @@ export function SettingsScreen() {
     <main className="mx-auto max-w-xl space-y-4 px-4 pb-28 pt-4">
       <PageHeader title="Settings" subtitle={identity ? `${identity.farm.name} · you are ${vocabularyLabels.role[identity.role]}` : undefined} />
       {identity === undefined ? <p className="text-ink-soft">Opening…</p> : null}
+      {identity ? <FarmSwitcherCard identity={identity} /> : null}
       {identity ? <FarmCard key={identity.farm.id} farm={identity.farm} canEdit={can("farm.update")} /> : null}
       {identity ? <DigestCard userId={identity.user.id} email={identity.user.email} /> : null}
+      {identity ? <ProfileCard key={identity.user.id} identity={identity} /> : null}
+      {identity ? <PasswordCard /> : null}
       <Card>
         <h2 className="mb-2 text-body font-bold text-glacier-800">Signing out</h2>
         <SessionActions />
