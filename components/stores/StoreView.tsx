@@ -21,6 +21,7 @@ import { buildChartPoints, describeBand, measureBagCold, measureStore } from "./
 import { ReadingsChart } from "./ReadingsChart";
 import { ReadingEntry } from "./ReadingForm";
 import { ReadingsImport } from "./ReadingsImport";
+import { StoreDelete } from "./StoreDelete";
 import { StoreForm } from "./StoreForm";
 import { StoreGlyph } from "./StoreGlyph";
 
@@ -44,11 +45,12 @@ export function StoreView() {
     const store = await db.stores.get(id);
     if (!store || store.deleted_at) return { store: null } as const;
     const readings = await db.readings.where("[store_id+taken_at]").between([id, Dexie.minKey], [id, Dexie.maxKey]).toArray();
-    const bags = (await db.bags.where("store_id").equals(id).toArray()).filter((b) => !b.deleted_at && !b.discarded_on && !b.sown_on);
+    const bagsOfStore = await db.bags.where("store_id").equals(id).toArray();
+    const bags = bagsOfStore.filter((b) => !b.deleted_at && !b.discarded_on && !b.sown_on);
     const lots = await db.lots.bulkGet([...new Set(bags.map((b) => b.lot_id))]);
     const protocolIds = [...new Set(bags.map((b) => b.protocol_id).filter((x): x is string => !!x))];
     const protocols = await db.protocols.bulkGet(protocolIds);
-    return { store, readings, bags, lots: lots.filter((l) => !!l), protocols: protocols.filter((p) => !!p) } as const;
+    return { store, readings, bags, bagsOfStore, lots: lots.filter((l) => !!l), protocols: protocols.filter((p) => !!p) } as const;
   }, [id]);
 
   const nowIso = useMemo(() => new Date().toISOString(), []);
@@ -61,7 +63,7 @@ export function StoreView() {
   if (data === undefined) return <p className="p-4 text-ink-soft">Opening the store on this phone…</p>;
   if (!data.store) return <Missing text="This cold store is not on this phone. It may have been removed, or the phone has not synced it yet." />;
 
-  const { store, readings, bags, lots, protocols } = data;
+  const { store, readings, bags, bagsOfStore, lots, protocols } = data;
   const points = buildChartPoints(readings, unit, sinceMs);
   const exposure = measureStore(readings, sinceMs);
   const band = describeBand(unit);
@@ -207,6 +209,11 @@ export function StoreView() {
         </ul>
       </Card>
 
+      {can("store.delete") ? (
+        <Card>
+          <StoreDelete store={store} bagsOfStore={bagsOfStore} readingCount={readings.filter((r) => !r.deleted_at).length} />
+        </Card>
+      ) : null}
     </main>
   );
 }

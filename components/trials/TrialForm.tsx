@@ -4,13 +4,14 @@ import { useState } from "react";
 import { useFieldArray, useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { z } from "zod";
-import { TrialInput } from "@/lib/schemas/trial";
+import { TrialDetails, TrialInput, type Trial } from "@/lib/schemas/trial";
 import type { Lot } from "@/lib/schemas/lot";
-import { createTrial } from "@/lib/client/repo";
+import { createTrial, updateTrial } from "@/lib/client/repo";
 import { Button } from "@/components/ui/Button";
 import { Field, Input, Select, TextArea } from "@/components/ui/Field";
 import { describeSaveError } from "@/components/bags/save-error";
 import { Notice } from "@/components/season/Notice";
+import { pickChangedFields } from "./trial-manage";
 
 // The shared trial schema without ids (the phone makes them); arms as label + treatment.
 export const TrialForm = TrialInput.omit({ id: true, notes: true }).extend({
@@ -103,6 +104,69 @@ export function NewTrialForm({ lots, onDone }: { lots: readonly Lot[]; onDone: (
           Create trial
         </Button>
         <Button tone="quiet" onClick={() => onDone(null)}>
+          Cancel
+        </Button>
+      </div>
+    </form>
+  );
+}
+
+// Editing keeps the arms as they are (bags point at them); only the trial's own words and lot change.
+type TrialEditValues = z.input<typeof TrialDetails>;
+type TrialEditOutput = z.output<typeof TrialDetails>;
+
+export function EditTrialForm({ trial, lots, onDone }: { trial: Trial; lots: readonly Lot[]; onDone: (saved: boolean) => void }) {
+  const [saveError, setSaveError] = useState<string | null>(null);
+  const {
+    register,
+    handleSubmit,
+    formState: { errors, isSubmitting, dirtyFields },
+  } = useForm<TrialEditValues, unknown, TrialEditOutput>({
+    resolver: zodResolver(TrialDetails),
+    defaultValues: { name: trial.name, lot_id: trial.lot_id, question: trial.question, notes: trial.notes },
+  });
+
+  const submit = handleSubmit(async (values) => {
+    setSaveError(null);
+    const patch = pickChangedFields(values, dirtyFields);
+    if (Object.keys(patch).length === 0) return onDone(false);
+    try {
+      await updateTrial(trial.id, patch);
+      onDone(true);
+    } catch (e) {
+      setSaveError(describeSaveError(e));
+    }
+  });
+
+  return (
+    <form onSubmit={submit} noValidate className="space-y-4" aria-label={`Edit ${trial.name}`}>
+      <Field label="Name" htmlFor="edit-trial-name" error={errors.name?.message}>
+        <Input id="edit-trial-name" aria-invalid={!!errors.name} {...register("name")} />
+      </Field>
+      <Field label="Seed lot" htmlFor="edit-trial-lot" hint="The trial lists this lot's bags. Bags already in an arm stay in it.">
+        <Select id="edit-trial-lot" {...register("lot_id", { setValueAs: (v) => v || null })}>
+          <option value="">No lot</option>
+          {lots.map((l) => (
+            <option key={l.id} value={l.id}>
+              {l.species}
+              {l.source ? ` · ${l.source}` : ""}
+              {l.year ? ` ${l.year}` : ""}
+            </option>
+          ))}
+        </Select>
+      </Field>
+      <Field label="Question" htmlFor="edit-trial-question" error={errors.question?.message}>
+        <TextArea id="edit-trial-question" rows={2} aria-invalid={!!errors.question} {...register("question", { setValueAs: (v) => v || null })} />
+      </Field>
+      <Field label="Notes" htmlFor="edit-trial-notes" hint="What you did differently, what you saw, what to try next." error={errors.notes?.message}>
+        <TextArea id="edit-trial-notes" rows={3} aria-invalid={!!errors.notes} {...register("notes", { setValueAs: (v) => v || null })} />
+      </Field>
+      <Notice>{saveError}</Notice>
+      <div className="flex gap-3">
+        <Button type="submit" className="flex-1" disabled={isSubmitting}>
+          Save changes
+        </Button>
+        <Button tone="quiet" onClick={() => onDone(false)}>
           Cancel
         </Button>
       </div>

@@ -20,6 +20,8 @@ import { useMember } from "@/components/season/use-member";
 import { assembleTrialTable, buildTrialProtocol } from "./trial-table";
 import { ComparisonTable } from "./ComparisonTable";
 import { Notice } from "@/components/season/Notice";
+import { EditTrialForm } from "./TrialForm";
+import { TrialDelete } from "./TrialDelete";
 
 const verdictLook = {
   clear_difference: "border-moss-600 bg-moss-100",
@@ -33,6 +35,8 @@ export function TrialView() {
   const { can } = useMember();
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
   const [preview, setPreview] = useState<MutationArgs<"protocol.upsert"> | null>(null);
+  const [editing, setEditing] = useState(false);
+  const [edited, setEdited] = useState(false);
 
   const data = useLiveQuery(async () => {
     const db = getLocalDb();
@@ -45,8 +49,8 @@ export function TrialView() {
     const bags = allBags.filter((b) => (b.trial_arm_id && armIds.has(b.trial_arm_id)) || (lot ? b.lot_id === lot.id : false));
     const sowings = await db.sowings.where("bag_id").anyOf(bags.map((b) => b.id)).toArray();
     const counts = await db.counts.where("sowing_id").anyOf(sowings.map((s) => s.id)).toArray();
-    const [protocols, stores] = await Promise.all([db.protocols.toArray(), db.stores.toArray()]);
-    return { trial, arms, lot, bags, sowings, counts, protocols: protocols.filter((p) => !p.deleted_at), stores } as const;
+    const [protocols, stores, lots] = await Promise.all([db.protocols.toArray(), db.stores.toArray(), db.lots.toArray()]);
+    return { trial, arms, lot, bags, sowings, counts, protocols: protocols.filter((p) => !p.deleted_at), stores, lots: lots.filter((l) => !l.deleted_at) } as const;
   }, [id]);
 
   const table = useMemo(() => (data?.trial ? assembleTrialTable({ arms: data.arms, bags: data.bags, sowings: data.sowings, counts: data.counts }) : null), [data]);
@@ -54,7 +58,7 @@ export function TrialView() {
   if (!id) return <Missing text="No trial was chosen." />;
   if (data === undefined) return <p className="p-4 text-ink-soft">Opening the trial on this phone…</p>;
   if (!data.trial || !table) return <Missing text="This trial is not on this phone. It may not have synced yet." />;
-  const { trial, arms, lot, bags, protocols, stores } = data;
+  const { trial, arms, lot, bags, protocols, stores, lots } = data;
   const ownProtocol = protocols.find((p) => p.source_trial_id === trial.id) ?? null;
   const winner = table.winner;
   const canAssign = can("bag.update");
@@ -103,6 +107,35 @@ export function TrialView() {
       </Link>
       <PageHeader title={trial.name} subtitle={lot ? `${lot.species}${lot.source ? ` · ${lot.source}` : ""}${lot.year ? ` ${lot.year}` : ""}` : "No lot chosen"} />
       {trial.question ? <p className="text-body text-ink">{trial.question}</p> : null}
+      {trial.notes ? <p className="whitespace-pre-line text-label text-ink-soft">{trial.notes}</p> : null}
+      {can("trial.update") ? (
+        editing ? (
+          <Card>
+            <EditTrialForm
+              trial={trial}
+              lots={lots}
+              onDone={(saved) => {
+                setEditing(false);
+                setEdited(saved);
+              }}
+            />
+          </Card>
+        ) : (
+          <div className="space-y-2">
+            <Button
+              tone="quiet"
+              className="w-full"
+              onClick={() => {
+                setEdited(false);
+                setEditing(true);
+              }}
+            >
+              Edit trial
+            </Button>
+            {edited ? <Notice ok>Trial saved on this phone; it goes to the farm when there is signal.</Notice> : null}
+          </div>
+        )
+      ) : null}
 
       <Card className="space-y-3">
         <h2 className="text-body font-bold text-glacier-800">Verdict</h2>
@@ -209,6 +242,17 @@ export function TrialView() {
         </ul>
         {arms.map((a) => (a.treatment ? <p key={a.id} className="text-label text-ink-soft"><strong>{a.label}:</strong> {a.treatment}</p> : null))}
       </Card>
+
+      {can("trial.delete") ? (
+        <Card>
+          <TrialDelete
+            trial={trial}
+            armLabels={[...arms].sort((a, c) => a.position - c.position).map((a) => a.label)}
+            bagsInArms={bags.filter((b) => arms.some((a) => a.id === b.trial_arm_id)).length}
+            hasOwnProtocol={!!ownProtocol}
+          />
+        </Card>
+      ) : null}
     </main>
   );
 }

@@ -12,7 +12,7 @@ import type { ProtocolInput } from "@/lib/schemas/protocol";
 import type { ReadingInput } from "@/lib/schemas/reading";
 import type { SowingInput } from "@/lib/schemas/sowing";
 import type { StoreInput } from "@/lib/schemas/store";
-import type { TrialInput } from "@/lib/schemas/trial";
+import type { TrialDetails, TrialInput } from "@/lib/schemas/trial";
 import type { FarmSettings } from "@/lib/schemas/farm";
 import { getLocalDb, type RimebookDB } from "./db";
 import { applyEffectsLocally, writeTables } from "./local-apply";
@@ -88,7 +88,7 @@ export const recordCount = (input: New<CountInput>) => runMutation("count.record
 // Trials
 export const createTrial = (input: Omit<New<TrialInput>, "arms"> & { arms: (Omit<TrialInput["arms"][number], "id"> & { id?: string })[] }) =>
   runMutation("trial.create", { ...input, id: input.id ?? newId(), arms: input.arms.map((a) => ({ ...a, id: a.id ?? newId() })) });
-export const updateTrial = (id: string, patch: Partial<Omit<TrialInput, "id" | "arms">>) => runMutation("trial.update", { id, patch });
+export const updateTrial = (id: string, patch: Partial<TrialDetails>) => runMutation("trial.update", { id, patch });
 /** Removes the trial and its arms; its bags stay, no longer compared. */
 export const deleteTrial = (id: string) => runMutation("trial.delete", { id });
 

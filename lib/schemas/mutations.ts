@@ -8,7 +8,7 @@ import { BagInput, BagPatch } from "./bag";
 import { CheckInput } from "./check";
 import { SowingInput } from "./sowing";
 import { CountInput } from "./count";
-import { TrialInput } from "./trial";
+import { TrialDetails, TrialInput } from "./trial";
 import { PlanItemInput } from "./plan";
 import { FarmSettings } from "./farm";
 import { Protocol } from "./protocol";
@@ -60,7 +60,7 @@ export const mutationTable = {
   "count.record": { minRole: "helper", args: CountInput },
 
   "trial.create": { minRole: "grower", args: TrialInput },
-  "trial.update": { minRole: "grower", args: patchOf(TrialInput.omit({ id: true, arms: true })) },
+  "trial.update": { minRole: "grower", args: patchOf(TrialDetails) },
   "trial.delete": { minRole: "grower", args: z.object({ id: Id }) },
 
   "plan.upsert": { minRole: "grower", args: PlanItemInput },

@@ -21,3 +21,7 @@ export const TrialInput = Trial.omit(serverStamped).extend({
   arms: z.array(TrialArm.omit(serverStamped).omit({ trial_id: true })).min(2, { error: "A trial compares at least two treatments." }).max(8),
 });
 export type TrialInput = z.input<typeof TrialInput>;
+
+/** The trial's own fields, without its arms: what an edit may change (bags point at the arms, so they stay). */
+export const TrialDetails = TrialInput.omit({ id: true, arms: true });
+export type TrialDetails = z.input<typeof TrialDetails>;

@@ -1,0 +1,91 @@
+"use client";
+
+import Link from "next/link";
+import { useState } from "react";
+import { useRouter } from "next/navigation";
+import { deleteStore } from "@/lib/client/repo";
+import { findBagsStillInStore, type BagPlace } from "@/lib/domain/store-rules";
+import { formatBagCode } from "@/lib/domain";
+import type { Store } from "@/lib/schemas/store";
+import { Button } from "@/components/ui/Button";
+import { ConfirmPanel } from "@/components/ui/ConfirmPanel";
+import { describeSaveError } from "@/components/bags/save-error";
+import { Notice } from "@/components/season/Notice";
+import { describeStoreDelete, explainStoreRefusal } from "./store-delete";
+
+/** Delete a cold store: refused while bags are still in it (each one linked, to move it), else confirmed first. */
+export function StoreDelete({ store, bagsOfStore, readingCount }: { store: Store; bagsOfStore: readonly (BagPlace & { id: string })[]; readingCount: number }) {
+  const router = useRouter();
+  const [open, setOpen] = useState(false);
+  const [busy, setBusy] = useState(false);
+  const [error, setError] = useState<string | null>(null);
+  const refusal = explainStoreRefusal(store, bagsOfStore);
+  const held = findBagsStillInStore(bagsOfStore);
+
+  async function remove() {
+    setBusy(true);
+    setError(null);
+    try {
+      await deleteStore(store.id);
+      router.replace("/stores");
+    } catch (e) {
+      setError(describeSaveError(e));
+      setBusy(false);
+    }
+  }
+
+  if (!open) {
+    return (
+      <Button tone="quiet" className="w-full text-ember-700" onClick={() => setOpen(true)}>
+        Delete this store…
+      </Button>
+    );
+  }
+  if (refusal) {
+    return (
+      <section aria-labelledby="store-delete-refused" className="space-y-3 rounded-card border-2 border-wheat-600 bg-wheat-100 p-4">
+        <h3 id="store-delete-refused" className="text-body font-bold text-ink">
+          {store.name} cannot be deleted yet
+        </h3>
+        <p role="alert" className="text-label text-ink">
+          {refusal}
+        </p>
+        <ul className="grid grid-cols-2 gap-2">
+          {held.map((b) => (
+            <li key={b.id}>
+              <Link
+                href={`/bags/view?id=${encodeURIComponent(b.id)}`}
+                className="flex min-h-tap items-center justify-center rounded-xl border-2 border-glacier-700 bg-white px-2 font-mono font-bold tracking-wider text-glacier-800"
+              >
+                <span className="sr-only">Open bag </span>
+                {formatBagCode(b.code)}
+              </Link>
+            </li>
+          ))}
+        </ul>
+        <Button tone="quiet" className="w-full" onClick={() => setOpen(false)}>
+          Close
+        </Button>
+      </section>
+    );
+  }
+  return (
+    <div className="space-y-2">
+      <ConfirmPanel
+        title={`Delete ${store.name}?`}
+        confirmLabel={busy ? "Deleting…" : `Yes, delete ${store.name}`}
+        busy={busy}
+        onConfirm={() => void remove()}
+        onCancel={() => {
+          setOpen(false);
+          setError(null);
+        }}
+      >
+        {describeStoreDelete(readingCount).map((line) => (
+          <p key={line}>{line}</p>
+        ))}
+      </ConfirmPanel>
+      <Notice>{error}</Notice>
+    </div>
+  );
+}
