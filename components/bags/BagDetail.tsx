@@ -9,18 +9,18 @@ import { getLocalDb, type PendingPhoto } from "@/lib/client/db";
 import type { Check } from "@/lib/schemas/check";
 import type { Photo } from "@/lib/schemas/photo";
 import { vocabularyLabels } from "@/lib/schemas/vocabulary";
-import { adviseOnCheck, determineBagState, formatBagCode, formatTemperature, shiftPullWindow } from "@/lib/domain";
+import { adviseOnCheck, formatBagCode, formatTemperature, measureColdExposure, prepareStoreReadings, scheduleBagCheck, type ColdExposure, type EffectiveWindow } from "@/lib/domain";
 import { buttonClass } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
 import { StateBadge } from "@/components/ui/StateBadge";
 import { pickBagCautions } from "@/components/check/bag-cautions";
 import { SowingPanel } from "@/components/counts/SowingPanel";
 import { useMember } from "@/components/season/use-member";
-import { measureBagCold } from "@/components/stores/store-metrics";
 import { readProtocolRow } from "@/lib/domain/rows/protocol-row";
 import { BagActions } from "./BagActions";
 import { BagCautions } from "./BagCautions";
-import { findBagWindow } from "@/lib/domain/rows/bag-rows";
+import { buildBagRows, findEffectiveBagWindow, toTemperatureReadings } from "@/lib/domain/rows/bag-rows";
+import { cadenceFor, toRoundBag } from "@/lib/domain/rows/round-input";
 import { describeBagHistory } from "./bag-history";
 import { formatLongDay, formatShortDay, formatStamp } from "./format-day";
 import { useToday } from "./use-farm-rows";
@@ -87,23 +87,25 @@ function Missing({ text }: { text: string }) {
 function BagDetailView({ data }: { data: BagDetailData }) {
   const { bag, lot, protocol, store, stores, checks } = data;
   const today = useToday();
-  const { can } = useMember();
-  const [nowIso] = useState(() => new Date().toISOString());
-  const window = findBagWindow(bag, protocol);
-  const state = determineBagState(
-    { startedOn: bag.start_date, pulledOn: bag.pulled_on, sownOn: bag.sown_on, discardedOn: bag.discarded_on },
-    window,
-    today,
-  );
+  const { can, identity } = useMember();
+  const [nowMs] = useState(() => Date.now());
+  // The same row, effective window (moved by cold lost in the store) and next check as Today, the bags table,
+  // the labels and the digest: all from lib/domain.
+  const { row, effective, cold } = useMemo(() => {
+    const clock = { asOf: nowMs };
+    const row = buildBagRows({ bags: [bag], lots: lot ? [lot] : [], protocols: protocol ? [protocol] : [], stores, readings: data.readings }, today, clock)[0];
+    const readings = toTemperatureReadings(data.readings);
+    const effective = findEffectiveBagWindow(bag, protocol, prepareStoreReadings(readings), today, clock);
+    // The hour-by-hour story behind it, over the same span and band, so its lost days are the window's.
+    const span = effective.span;
+    const cold = span && store ? measureColdExposure(readings, { band: effective.band, from: new Date(span.from).toISOString(), to: new Date(span.to).toISOString() }) : null;
+    return { row, effective, cold };
+  }, [bag, lot, protocol, store, stores, data.readings, today, nowMs]);
+  const window = effective.planned;
+  const state = row.state;
+  const { next } = scheduleBagCheck(toRoundBag(row, bag, checks[0] ?? null), today, cadenceFor(identity?.farm.weekly_check_days));
   const proto = protocol ? readProtocolRow(protocol) : null;
-  const cold = useMemo(
-    () => (bag.start_date ? measureBagCold(bag, proto, data.readings, nowIso) : null),
-    // proto is derived from protocol; the readings array changes when the store's readings do.
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-    [bag, protocol, data.readings, nowIso],
-  );
-  const lostDays = cold?.exposure?.lostDays ?? 0;
-  const shifted = window && lostDays > 0 ? shiftPullWindow(window, lostDays) : null;
+  const shifted = effective.shifted ? effective.window : null;
   const cautions = pickBagCautions({
     species: lot?.species ?? "",
     toxicSeed: protocol?.toxic_seed ?? null,
@@ -112,7 +114,6 @@ function BagDetailView({ data }: { data: BagDetailData }) {
     storeHoldsFood: store?.holds_food,
   });
   const memberNames = new Map(data.members.map((m) => [m.user_id, m.name ?? m.email ?? "A member"]));
-  const inCold = state === "chilling" || state === "window_open" || state === "overdue";
 
   return (
     <main className="mx-auto max-w-xl space-y-4 px-4 pb-28 pt-4">
@@ -171,17 +172,23 @@ function BagDetailView({ data }: { data: BagDetailData }) {
             closesOn={window.closesOn}
             today={bag.pulled_on ?? bag.discarded_on ?? today}
             markerLabel={bag.pulled_on ? "Pulled" : bag.discarded_on ? "Discarded" : "Today"}
-            shifted={shifted && inCold ? { opensOn: shifted.opensOn, closesOn: shifted.closesOn } : null}
+            shifted={shifted ? { opensOn: shifted.opensOn, closesOn: shifted.closesOn } : null}
           />
         ) : (
           <p className="text-label text-ink-soft">{proto?.noColdReason || "No pull window: this bag has no protocol window or no start date yet."}</p>
         )}
+        {next ? (
+          <p className="text-body" data-testid="bag-next-check">
+            <span className="font-semibold">{next.on <= today ? "Check today" : `Next check ${formatShortDay(next.on)}`}</span>
+            {next.on < today ? ` (due since ${formatShortDay(next.on)})` : ""}: {next.note}
+          </p>
+        ) : null}
         {window?.sourcesDisagree ? (
           <p className="text-label text-ink-soft">Sources disagree: planned for the earliest day; check daily from then and pull when the first roots show (common practice).</p>
         ) : null}
       </Card>
 
-      {bag.start_date ? <ColdDays data={data} cold={cold} shifted={shifted} inCold={inCold} /> : null}
+      {bag.start_date ? <ColdDays data={data} cold={cold} effective={effective} /> : null}
 
       <Card className="space-y-3">
         <h2 className="text-body font-bold text-glacier-800">What to do</h2>
@@ -226,33 +233,32 @@ function Fact({ term, children }: { term: string; children: React.ReactNode }) {
 function ColdDays({
   data,
   cold,
-  shifted,
-  inCold,
+  effective,
 }: {
   data: BagDetailData;
-  cold: ReturnType<typeof measureBagCold> | null;
-  shifted: ReturnType<typeof shiftPullWindow> | null;
-  inCold: boolean;
+  cold: ColdExposure | null;
+  effective: EffectiveWindow;
 }) {
   const { store } = data;
-  const e = cold?.exposure;
+  const e = cold;
+  const shifted = effective.shifted ? effective.window : null;
   return (
     <Card className="space-y-2">
       <h2 className="text-body font-bold text-glacier-800">Effective cold days</h2>
       {!store ? (
         <p className="text-label text-ink-soft">The bag is not in a cold store, so there are no readings to count.</p>
       ) : !e ? (
-        <p className="text-label text-ink-soft">{cold?.problem ?? "Nothing to measure yet."}</p>
+        <p className="text-label text-ink-soft">{effective.reason}</p>
       ) : (
         <>
           <p className="text-body">
             <span className="text-title font-bold">{e.effectiveColdDays.toFixed(1)}</span> of {e.calendarDays.toFixed(1)} days in {store.name} were between{" "}
             {formatTemperature(e.band.minC)} and {formatTemperature(e.band.maxC)}.
           </p>
-          {e.lostDays > 0 ? (
+          {effective.lostDays > 0 ? (
             <p className="text-body text-wheat-700">
-              About {e.lostDays === 1 ? "1 day of cold was" : `${e.lostDays} days of cold were`} lost
-              {shifted && inCold
+              About {effective.lostDays === 1 ? "1 day of cold was" : `${effective.lostDays} days of cold were`} lost
+              {shifted
                 ? `: the window moves to ${formatShortDay(shifted.opensOn)}${shifted.closesOn ? `–${formatShortDay(shifted.closesOn)}` : ""}.`
                 : "."}
             </p>

@@ -64,14 +64,15 @@ function ChipRow({ label, children }: { label: string; children: React.ReactNode
 }
 
 export function BagsTable() {
-  const sources = useBagSources();
+  const sources = useBagSources(true);
   const today = useToday();
   const canCreate = useMember().can("bag.create");
   const [filters, setFilters] = useState<BagFilters>(defaultBagFilters);
   const [sorting, setSorting] = useState<SortingState>([{ id: "window", desc: false }]);
   const [showFilters, setShowFilters] = useState(false);
 
-  const allRows = useMemo(() => (sources ? buildBagRows(sources, today) : []), [sources, today]);
+  // Effective windows: moved by the cold each bag lost up to now, the same rows Today's round is built from.
+  const allRows = useMemo(() => (sources ? buildBagRows(sources, today, { asOf: Date.now() }) : []), [sources, today]);
   const rows = useMemo(() => filterBagRows(allRows, filters, today), [allRows, filters, today]);
   const stateCounts = useMemo(() => countByState(allRows), [allRows]);
   const speciesList = useMemo(() => [...new Set(allRows.map((r) => r.species))].sort(), [allRows]);

@@ -51,7 +51,8 @@ export function CheckSheet() {
     const [sheet, identity, fetched] = await Promise.all([loadBagForSheet(db, { bagId, code }), loadIdentity(db), loadFarmFetched(db)]);
     return { sheet, identity, fetched };
   }, [bagId, code]);
-  const view = useMemo(() => (data?.sheet ? describeSheet(data.sheet, today) : null), [data?.sheet, today]);
+  // Cold lost up to now moves the window, as on Today (the live query re-runs when the store's readings change).
+  const view = useMemo(() => (data?.sheet ? describeSheet(data.sheet, today, { asOf: Date.now() }) : null), [data?.sheet, today]);
 
   const unit: TemperatureUnit = data?.identity?.farm.temperature_unit === "F" ? "F" : "C";
   const cadence = cadenceFor(data?.identity?.farm.weekly_check_days);

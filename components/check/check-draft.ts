@@ -34,6 +34,8 @@ export interface BagForCheck {
   state: BagState;
   window: PullWindow | null;
   nextMoveOn: IsoDay | null;
+  /** The bag's own days between checks before its window, when set. */
+  checkEveryDays?: number | null;
 }
 
 export interface CheckPreview {
@@ -68,6 +70,7 @@ export function previewCheck(
         lastCheck: { on: today, moisture: draft.moisture, mould: draft.mould, sprouts: draft.sprouts, actions: draft.actions },
         nextMoveOn: bag.nextMoveOn,
         cadence,
+        checkEveryDays: bag.checkEveryDays ?? null,
       });
   let nextText: string;
   if (ends) nextText = `No more checks: the bag is ${ends}.`;

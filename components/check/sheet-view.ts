@@ -1,5 +1,4 @@
-import { buildBagRows, type BagRow } from "@/lib/domain/rows/bag-rows";
-import { findNextMoveOn } from "@/lib/domain/rows/round-input";
+import { buildBagRows, type BagRow, type WindowClock } from "@/lib/domain/rows/bag-rows";
 import type { IsoDay } from "@/lib/domain/dates";
 import type { PullWindow } from "@/lib/domain/schedule";
 import type { BagForSheet } from "@/lib/client/fridge-reads";
@@ -16,11 +15,12 @@ export interface SheetView {
   lotText: string;
 }
 
-export function describeSheet(data: BagForSheet, today: IsoDay): SheetView | null {
+export function describeSheet(data: BagForSheet, today: IsoDay, clock?: WindowClock): SheetView | null {
   const { bag, lot, protocol, store } = data;
   const row = buildBagRows(
-    { bags: [bag], lots: lot ? [lot] : [], protocols: protocol ? [protocol] : [], stores: store ? [store] : [] },
+    { bags: [bag], lots: lot ? [lot] : [], protocols: protocol ? [protocol] : [], stores: store ? [store] : [], readings: data.readings },
     today,
+    clock,
   )[0];
   if (!row) return null;
   return {
@@ -31,7 +31,8 @@ export function describeSheet(data: BagForSheet, today: IsoDay): SheetView | nul
       startedOn: row.startedOn,
       state: row.state,
       window: row.window,
-      nextMoveOn: findNextMoveOn(row, protocol),
+      nextMoveOn: row.nextMoveOn,
+      checkEveryDays: row.checkEveryDays,
     },
     cautions: pickBagCautions({
       species: row.species,

@@ -24,7 +24,8 @@ export function LabelSheet() {
   const idsParam = params.get("ids");
   const today = formatIsoDay(new Date());
   const farm = useLiveQuery(() => loadFarmRows(getLocalDb()), []);
-  const rows = useMemo(() => (farm ? buildBagRows(farm, today) : []), [farm, today]);
+  // Effective windows (moved by cold lost up to now), as Today and the bags table show them.
+  const rows = useMemo(() => (farm ? buildBagRows(farm, today, { asOf: Date.now() }) : []), [farm, today]);
 
   const [size, setSize] = useState<LabelSize>((params.get("size") as LabelSize) in labelSizes ? (params.get("size") as LabelSize) : "a4");
   const [storeId, setStoreId] = useState<string>(params.get("store") ?? "");

@@ -22,7 +22,8 @@ async function loadRound(today: string) {
   const [rows, identity, fetched] = await Promise.all([loadFarmRows(db), loadIdentity(db), loadFarmFetched(db)]);
   const live = rows.bags.filter((b) => !b.deleted_at && b.start_date && !b.pulled_on && !b.sown_on && !b.discarded_on);
   const lastChecks = await loadLastChecks(db, live.map((b) => b.id));
-  const round = buildRoundFromRows(rows, lastChecks, today, cadenceFor(identity?.farm.weekly_check_days));
+  // Windows move by the cold lost up to now (each store's readings, read once): the same rows as the bags table.
+  const round = buildRoundFromRows(rows, lastChecks, today, cadenceFor(identity?.farm.weekly_check_days), { asOf: Date.now() });
   // The same bags the red chips count, so the sentence and the chips agree.
   const urgent = round.items.filter((i) => urgentChipKinds.has(chipKindOf(i))).length;
   return { round, identity, fetched, urgent, bagCount: rows.bags.length };

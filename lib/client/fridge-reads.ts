@@ -2,6 +2,7 @@ import Dexie from "dexie";
 import type { Bag } from "@/lib/schemas/bag";
 import type { Check } from "@/lib/schemas/check";
 import type { Lot } from "@/lib/schemas/lot";
+import type { Reading } from "@/lib/schemas/reading";
 import type { Store } from "@/lib/schemas/store";
 import { normalizeCrockford } from "@/lib/domain/bag-codes";
 import type { ProtocolRow, RimebookDB } from "./db";
@@ -15,11 +16,24 @@ export interface FarmRows {
   lots: Lot[];
   protocols: ProtocolRow[];
   stores: Store[];
+  /** Live readings of every store: the bags' windows move by the cold they lost (lib/domain effective window). */
+  readings: Reading[];
+}
+
+/** One store's live readings: one indexed read of that store, nothing per bag. */
+export async function loadStoreReadings(db: RimebookDB, storeId: string): Promise<Reading[]> {
+  return (await db.readings.where("store_id").equals(storeId).toArray()).filter((r) => !r.deleted_at);
+}
+
+/** Readings of the stores that hold a started bag, one read per store (a store with no bags in it costs nothing). */
+export async function loadReadingsOfBagStores(db: RimebookDB, bags: readonly Pick<Bag, "store_id" | "start_date" | "deleted_at">[]): Promise<Reading[]> {
+  const storeIds = [...new Set(bags.filter((b) => !b.deleted_at && b.start_date && b.store_id).map((b) => b.store_id!))];
+  return (await Promise.all(storeIds.map((id) => loadStoreReadings(db, id)))).flat();
 }
 
 export async function loadFarmRows(db: RimebookDB): Promise<FarmRows> {
   const [bags, lots, protocols, stores] = await Promise.all([db.bags.toArray(), db.lots.toArray(), db.protocols.toArray(), db.stores.toArray()]);
-  return { bags, lots, protocols, stores };
+  return { bags, lots, protocols, stores, readings: await loadReadingsOfBagStores(db, bags) };
 }
 
 /** The latest check of one bag (checks are append-only; the newest one speaks for the bag). */
@@ -55,6 +69,8 @@ export interface BagForSheet {
   protocol: ProtocolRow | null;
   store: Store | null;
   lastCheck: Check | null;
+  /** The bag's store's live readings, so the sheet shows the same effective window as Today. */
+  readings: Reading[];
 }
 
 /** One bag by id or by code (as the label carries it), with what its check sheet shows. */
@@ -68,12 +84,13 @@ export async function loadBagForSheet(db: RimebookDB, ref: { bagId?: string | nu
   if (!bag || bag.deleted_at) return null;
   const lot = (await db.lots.get(bag.lot_id)) ?? null;
   const protocolId = bag.protocol_id ?? lot?.protocol_id ?? null;
-  const [protocol, store, lastCheck] = await Promise.all([
+  const [protocol, store, lastCheck, readings] = await Promise.all([
     protocolId ? db.protocols.get(protocolId) : undefined,
     bag.store_id ? db.stores.get(bag.store_id) : undefined,
     loadLastCheck(db, bag.id),
+    bag.store_id ? loadStoreReadings(db, bag.store_id) : [],
   ]);
-  return { bag, lot, protocol: protocol && !protocol.deleted_at ? protocol : null, store: store ?? null, lastCheck };
+  return { bag, lot, protocol: protocol && !protocol.deleted_at ? protocol : null, store: store ?? null, lastCheck, readings };
 }
 
 /** Whether the farm has been fetched onto this phone at least once (before that, "no such bag" means "not yet"). */

@@ -5,6 +5,7 @@ export * from "./protocols";
 export * from "./schedule";
 export * from "./round";
 export * from "./cold-exposure";
+export * from "./effective-window";
 export * from "./planning";
 export * from "./germination";
 export * from "./statistics";

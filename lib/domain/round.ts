@@ -21,6 +21,8 @@ export interface RoundBag extends BagRecord {
   window: PullWindow | null;
   lastCheck?: CheckFindings | null;
   nextMoveOn?: IsoDay | null;
+  /** The bag's own days between checks before its window, when set. */
+  checkEveryDays?: number | null;
 }
 
 export interface RoundItem {
@@ -81,23 +83,32 @@ function rankNames(names: Iterable<string>): Map<string, number> {
   return new Map(sorted.map((n, i) => [n, i]));
 }
 
+/**
+ * One bag's state and next check on `today`, as the round shows it (a window opening today says so). The one rule
+ * Today, the bag page, the check sheet and the digest share; null `next` when nothing is left to check.
+ */
+export function scheduleBagCheck(bag: RoundBag, today: IsoDay, cadence?: CheckCadence): { state: BagState; next: NextCheck | null } {
+  const state = determineBagState(bag, bag.window, today);
+  const next = scheduleNextCheck({
+    state,
+    startedOn: bag.startedOn,
+    window: bag.window,
+    lastCheck: bag.lastCheck ?? null,
+    nextMoveOn: bag.nextMoveOn ?? null,
+    cadence,
+    checkEveryDays: bag.checkEveryDays ?? null,
+  });
+  const isWindowOpening = next !== null && next.on === today && bag.window?.opensOn === today && next.reason === "window_daily";
+  return { state, next: isWindowOpening ? { ...next, reason: "window_opens", note: "Pull window opens today: start daily checks." } : next };
+}
+
 /** Computes the bags due on `today` (next check on or before it). Linear in bags plus one sort; shared by phone and server. */
 export function buildTodaysRound(bags: readonly RoundBag[], today: IsoDay, cadence?: CheckCadence): TodaysRound {
   const items: RoundItem[] = [];
   for (const bag of bags) {
-    const state = determineBagState(bag, bag.window, today);
-    const next = scheduleNextCheck({
-      state,
-      startedOn: bag.startedOn,
-      window: bag.window,
-      lastCheck: bag.lastCheck ?? null,
-      nextMoveOn: bag.nextMoveOn ?? null,
-      cadence,
-    });
+    const { state, next } = scheduleBagCheck(bag, today, cadence);
     if (!next || next.on > today) continue;
-    const isWindowOpening = bag.window?.opensOn === today && next.reason === "window_daily";
-    const shown: NextCheck = isWindowOpening ? { ...next, reason: "window_opens", note: "Pull window opens today: start daily checks." } : next;
-    items.push({ bag, state, next: shown, priority: findPriority(shown, bag, state), isLate: shown.on < today });
+    items.push({ bag, state, next, priority: findPriority(next, bag, state), isLate: next.on < today });
   }
   const storeRank = rankNames(items.map((i) => i.bag.storeName));
   const boxRank = rankNames(items.map((i) => i.bag.box));

@@ -132,6 +132,7 @@ export type NextCheckReason =
   | "follow_up"
   | "move_to_next_phase"
   | "window_daily"
+  /** The routine check before the window (every few days; the name stays from the weekly default). */
   | "weekly";
 
 export interface NextCheck {
@@ -148,6 +149,8 @@ export interface NextCheckInput {
   lastCheck?: CheckFindings | null;
   nextMoveOn?: IsoDay | null;
   cadence?: CheckCadence;
+  /** The bag's own days between checks before its window (bag setting); overrides the farm's rhythm when set. */
+  checkEveryDays?: number | null;
 }
 
 const rescueActions: readonly CheckAction[] = ["removed_mouldy_seed", "fresh_towel"];
@@ -163,17 +166,23 @@ function findFollowUp(check: CheckFindings, cadence: CheckCadence): { days: numb
   return options.reduce((a, b) => (b.days < a.days ? b : a));
 }
 
+function assertCheckDays(days: number): void {
+  if (days < 1 || !Number.isInteger(days)) throw new DomainError("Days between checks must be a whole number of at least 1.");
+}
+
 /**
- * Next check: weekly (configurable) before the window, daily inside it and after it, sooner after a problem,
- * and at once when the last check found roots (sow when about 10 % of the seed shows a radicle: Forest Research)
- * or spreading mould. Returns null when nothing is left to check (planned, pulled, sown, discarded).
+ * Next check: every few days before the window (the bag's own setting, else the farm's rhythm, weekly by default),
+ * daily inside it and after it, sooner after a problem, and at once when the last check found roots (sow when about
+ * 10 % of the seed shows a radicle: Forest Research) or spreading mould. Weekly-then-daily is common practice.
+ * Returns null when nothing is left to check (planned, pulled, sown, discarded).
  */
 export function scheduleNextCheck(input: NextCheckInput): NextCheck | null {
   const { state, window, startedOn } = input;
   const cadence = input.cadence ?? defaultCheckCadence;
-  if (cadence.everyDaysBeforeWindow < 1 || !Number.isInteger(cadence.everyDaysBeforeWindow)) {
-    throw new DomainError("Days between checks must be a whole number of at least 1.");
-  }
+  assertCheckDays(cadence.everyDaysBeforeWindow);
+  const ownDays = input.checkEveryDays ?? null;
+  if (ownDays !== null) assertCheckDays(ownDays);
+  const everyDays = ownDays ?? cadence.everyDaysBeforeWindow;
   if (state !== "chilling" && state !== "window_open" && state !== "overdue") return null;
   if (!startedOn) return null;
   const check = input.lastCheck ?? null;
@@ -195,10 +204,15 @@ export function scheduleNextCheck(input: NextCheckInput): NextCheck | null {
     reason = window.closesOn !== null && on > window.closesOn ? "overdue" : "window_daily";
     note = reason === "overdue" ? "Past the latest pull date: pull and sow, or note why it stays." : "Pull window open: check daily.";
   } else {
-    const weekly = addDaysToIsoDay(last, cadence.everyDaysBeforeWindow);
-    on = window ? pickEarlierDay(weekly, window.opensOn) : weekly;
+    const routine = addDaysToIsoDay(last, everyDays);
+    on = window ? pickEarlierDay(routine, window.opensOn) : routine;
     reason = window && on === window.opensOn ? "window_opens" : "weekly";
-    note = reason === "window_opens" ? "Pull window opens: start daily checks." : "Routine check.";
+    note =
+      reason === "window_opens"
+        ? "Pull window opens: start daily checks."
+        : ownDays !== null
+          ? `Routine check (this bag: every ${ownDays === 1 ? "day" : `${ownDays} days`}).`
+          : "Routine check.";
   }
 
   // A move still not recorded stays due (and shows as late) until the bag's move is recorded.

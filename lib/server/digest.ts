@@ -1,8 +1,8 @@
 import "server-only";
 import type { Knex } from "knex";
-import { buildBagRows, type BagRowSources } from "@/lib/domain/rows/bag-rows";
+import { buildBagRows, type BagRowSources, type ReadingRow, type WindowClock } from "@/lib/domain/rows/bag-rows";
 import { buildRoundFromRows, cadenceFor, type LastCheckRow } from "@/lib/domain/rows/round-input";
-import { findZonedDay, isKnownTimeZone } from "@/lib/domain/csv";
+import { convertZonedTimeToEpoch, findZonedDay, isKnownTimeZone } from "@/lib/domain/csv";
 import {
   addDaysToIsoDay,
   countDaysBetween,
@@ -73,16 +73,24 @@ function storeBand(kind: string): TemperatureBand | null {
 
 const placeOf = (storeName: string, box: string) => (box && box !== "No box" ? `${storeName}, ${box}` : storeName);
 
-async function loadSources(db: Knex, farmId: string): Promise<BagRowSources> {
+async function loadSources(db: Knex, farmId: string): Promise<BagRowSources & { readings: ReadingRow[] }> {
   const live = (t: string) => db(t).where({ farm_id: farmId }).whereNull("deleted_at");
-  const [bags, lots, protocols, stores] = await Promise.all([live("bags"), live("lots"), live("protocols"), live("stores")]);
+  const [bags, lots, protocols, stores, readings] = await Promise.all([
+    live("bags"),
+    live("lots"),
+    live("protocols"),
+    live("stores"),
+    // Every store's readings, read once: they move the bags' windows (as on the phone) and show the last day's excursions.
+    live("readings").select("store_id", "taken_at", "temperature_c"),
+  ]);
   const parse = (t: string, rows: Record<string, unknown>[]) => rows.map((r) => parseRow(t, r));
   return {
     bags: parse("bags", bags),
     lots: parse("lots", lots),
     protocols: parse("protocols", protocols),
     stores: parse("stores", stores),
-  } as unknown as BagRowSources;
+    readings: readings.map((r: Record<string, unknown>) => ({ store_id: String(r.store_id), taken_at: String(r.taken_at), temperature_c: Number(r.temperature_c) })),
+  } as unknown as BagRowSources & { readings: ReadingRow[] };
 }
 
 async function loadLastChecks(db: Knex, farmId: string): Promise<Map<string, LastCheckRow>> {
@@ -105,7 +113,9 @@ export async function buildFarmDigest(db: Knex, farmId: string, day: string, now
 
   const sources = await loadSources(db, farmId);
   const lastChecks = await loadLastChecks(db, farmId);
-  const rows = buildBagRows(sources, day);
+  // Windows moved by the cold lost up to now, on the farm's own calendar: the same rows the phone builds.
+  const clock: WindowClock = { asOf: now.getTime(), startOfDay: (d) => convertZonedTimeToEpoch(Date.parse(`${d}T00:00:00Z`), timezone) };
+  const rows = buildBagRows(sources, day, clock);
   const species = (r: { species: string; commonName: string }) => (r.commonName ? `${r.species} (${r.commonName})` : r.species);
 
   const overdue = rows
@@ -128,7 +138,7 @@ export async function buildFarmDigest(db: Knex, farmId: string, day: string, now
             : "Check daily and pull when the first roots show.",
     }));
   const listed = new Set(rows.filter((r) => (r.state === "overdue" && r.window?.closesOn) || (r.state === "window_open" && r.window?.opensOn === day)).map((r) => r.id));
-  const round = buildRoundFromRows(sources, lastChecks, day, cadenceFor(farmRow.weekly_check_days));
+  const round = buildRoundFromRows(sources, lastChecks, day, cadenceFor(farmRow.weekly_check_days), clock);
   const due = round.items
     .filter((i) => !listed.has(i.bag.id))
     .map((i) => ({
@@ -167,12 +177,8 @@ export async function buildFarmDigest(db: Knex, farmId: string, day: string, now
   for (const store of sources.stores) {
     const band = storeBand(store.kind);
     if (!band) continue;
-    const readings: { taken_at: string; temperature_c: number }[] = await db("readings")
-      .where({ store_id: store.id, farm_id: farmId })
-      .whereNull("deleted_at")
-      .whereBetween("taken_at", [addDaysToIsoDay(from.toISOString().slice(0, 10), -2), `${addDaysToIsoDay(now.toISOString().slice(0, 10), 1)}~`])
-      .select("taken_at", "temperature_c");
-    const inReach = readings.filter((r) => {
+    const inReach = sources.readings.filter((r) => {
+      if (r.store_id !== store.id) return false;
       const t = Date.parse(r.taken_at);
       return t <= now.getTime() && t >= from.getTime() - 2 * 86_400_000;
     });

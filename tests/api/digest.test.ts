@@ -57,14 +57,21 @@ beforeAll(async () => {
   await bag("CCCC33", day(-7)); // first weekly check today
   await bag("DDDD44", day(-3)); // nothing due
   await bag("GGGG77", day(-9)); // its weekly check two days ago was missed
+  const ownRhythm = await bag("JJJJ99", day(-3)); // checked every 3 days (the bag's own setting): due today
+  await ctx.db("bags").where({ id: ownRhythm }).update({ check_every_days: 3 });
   const mouldy = await bag("EEEE55", day(-10));
   await addCheck(ctx.db, f, mouldy, `${day(-1)}T16:00:00.000Z`, { mould: "spots", moisture: "soggy", note: "grey fuzz <one corner>" });
   const older = await bag("FFFF66", day(-12));
   await addCheck(ctx.db, f, older, `${day(-3)}T09:00:00.000Z`, { mould: "spots" });
   await addCheck(ctx.db, f, older, `${day(-2)}T09:00:00.000Z`);
 
-  // The barn fridge's door was left ajar: above 10 °C from 14 h ago until 2 h ago.
-  for (const [h, c] of [[30, 4], [20, 4.5], [14, 11.5], [8, 12], [2, 4.2]] as const) await addReading(ctx.db, f, fridge, hoursAgo(h), c);
+  // The barn fridge's door was left ajar: above 10 °C from 12 h ago until 2 h ago (10 h: under half a day, no day lost).
+  for (const [h, c] of [[30, 4], [20, 4.5], [12, 11.5], [8, 12], [2, 4.2]] as const) await addReading(ctx.db, f, fridge, hoursAgo(h), c);
+  // The dairy fridge was warm (14 °C) from 5 days ago to 3 days ago: its bag lost 2 days of cold, so its window,
+  // planned to open 2 days ago, opens today (the phone's effective window, lib/domain).
+  const dairy = await addStore(ctx.db, f, { name: "Dairy fridge" });
+  await addBag(ctx.db, f, { code: "HHHH88", lotId: lot, storeId: dairy, protocolId: protocol, start: day(-30), box: "Box A" });
+  for (let h = 8 * 24; h >= 6; h -= 6) await addReading(ctx.db, f, dairy, hoursAgo(h), h <= 5 * 24 && h > 3 * 24 ? 14 : 4);
   const freezer = await addStore(ctx.db, f, { name: "Chest freezer", kind: "freezer" });
   for (const h of [20, 10, 1]) await addReading(ctx.db, f, freezer, hoursAgo(h), -18);
   const frame = await addStore(ctx.db, f, { name: "North cold frame", kind: "cold_frame" });
@@ -113,16 +120,21 @@ describe("/api/cron/digest", () => {
 
   it("says what is due in plain text: the round, windows opening, overdue pulls, mould yesterday, excursions", () => {
     const [m] = mailTo(owner.email);
-    expect(m.subject).toMatch(/^Bramblewick Native Nursery · \w+day \d+ \w+: 3 bags to check, 1 window opening, 1 past the latest pull, mould found yesterday, a cold store left its band$/);
+    expect(m.subject).toMatch(/^Bramblewick Native Nursery · \w+day \d+ \w+: 4 bags to check, 2 windows opening, 1 past the latest pull, mould found yesterday, a cold store left its band$/);
     const text = m.text;
     expect(text).toMatch(/^Good morning Wren,/);
     // The round: the weekly check and the mould follow-up (lib/domain schedule), not the bag with nothing due.
-    expect(text).toContain("Bags to check today (3)");
+    expect(text).toContain("Bags to check today (4)");
+    expect(text).toContain("- JJJ-J99 · Echinacea purpurea (Purple coneflower) · Barn fridge, Box A: Routine check (this bag: every 3 days).");
     expect(text).toContain(`- GGG-G77 · Echinacea purpurea (Purple coneflower) · Barn fridge, Box A: Routine check. (due since ${day(-2)})`);
     expect(text).toContain("- CCC-C33 · Echinacea purpurea (Purple coneflower) · Barn fridge, Box A: Routine check.");
     expect(text).toMatch(/- EEE-E55 · .*: Look again for mould spots\./);
     expect(text).not.toContain("DDD-D44");
-    expect(text).toContain(`Pull windows opening today (1)\n- AAA-A11 · Echinacea purpurea (Purple coneflower) · Barn fridge, Box A: Open until ${day(14)}`);
+    const opening = text.split("Pull windows opening today (2)\n")[1]?.split("\n\n")[0] ?? "";
+    expect(opening).toContain(`- AAA-A11 · Echinacea purpurea (Purple coneflower) · Barn fridge, Box A: Open until ${day(14)}`);
+    // Planned 28–42 days from day −30, moved 2 days by the warm spell: opens today, open until day 14.
+    expect(opening).toContain(`- HHH-H88 · Echinacea purpurea (Purple coneflower) · Dairy fridge, Box A: Open until ${day(14)}`);
+    expect(text).not.toMatch(/Bags to check today[^]*HHH-H88[^]*Pull windows opening/);
     expect(text).toContain(`Past the latest pull date (1)\n- BBB-B22 · Echinacea purpurea (Purple coneflower) · Barn fridge, Box A: 3 days past the latest pull date (${day(-3)})`);
     // Mould from yesterday's check only (not the one three days ago), with the caution.
     expect(text).toContain("Mould found yesterday (1)\n- EEE-E55");

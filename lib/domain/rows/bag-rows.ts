@@ -1,5 +1,6 @@
 import type { Bag } from "@/lib/schemas/bag";
 import type { Lot } from "@/lib/schemas/lot";
+import type { Reading } from "@/lib/schemas/reading";
 import type { Store } from "@/lib/schemas/store";
 import type { ProtocolRow } from "@/lib/client/db";
 import type { BagState, Medium } from "@/lib/schemas/vocabulary";
@@ -8,14 +9,25 @@ import {
   addDaysToIsoDay,
   computePullWindow,
   determineBagState,
+  findEffectiveWindow,
   formatBagCode,
+  parseIsoDay,
+  prepareStoreReadings,
+  reconcileProtocol,
+  type EffectiveWindow,
   type IsoDay,
   type PullWindow,
+  type ReconciledProtocol,
+  type StoreReadings,
+  type TemperatureReading,
+  type WindowBasis,
 } from "@/lib/domain";
 import { readProtocolRow } from "@/lib/domain/rows/protocol-row";
 
 // Pure helpers behind the bags table: one row per bag with its state and window worked out on the phone
 // (never stored), plus the filter chips and the sort orders. No React here, so tests run without a DOM.
+// The same rows feed Today's round, the labels, the check sheet and the server's digest, so a bag's window and
+// state read the same everywhere: the effective window (shifted by cold lost in its store) from lib/domain.
 
 export interface BagRow {
   id: string;
@@ -32,18 +44,85 @@ export interface BagRow {
   seedCount: number | null;
   startedOn: IsoDay | null;
   plannedStartOn: IsoDay | null;
+  /** The effective window: the planned one moved by cold days lost in the store. */
   window: PullWindow | null;
+  plannedWindow: PullWindow | null;
+  lostColdDays: number;
+  windowBasis: WindowBasis;
+  /** Plain words on why the window is where it is. */
+  windowNote: string;
   state: BagState;
+  nextMoveOn: IsoDay | null;
+  /** The bag's own days between checks before its window; null: the farm's rhythm. */
+  checkEveryDays: number | null;
 }
 
-/** The bag's pull window: from its protocol when it has one, else the window stored when it was last written. */
+/** The bag's planned pull window: from its protocol when it has one, else the window stored when it was last written. */
 export function findBagWindow(bag: Pick<Bag, "start_date" | "window_start" | "window_end">, protocol: ProtocolRow | null): PullWindow | null {
   if (bag.start_date && protocol && !protocol.deleted_at) {
     const computed = computePullWindow(readProtocolRow(protocol), bag.start_date);
     if (computed) return computed;
   }
+  return readStoredWindow(bag);
+}
+
+function readStoredWindow(bag: Pick<Bag, "window_start" | "window_end">): PullWindow | null {
   if (!bag.window_start) return null;
   return { opensOn: bag.window_start, closesOn: bag.window_end ?? null, plannedPullOn: bag.window_start, sourcesDisagree: false };
+}
+
+export type ReadingRow = Pick<Reading, "store_id" | "taken_at" | "temperature_c"> & { deleted_at?: string | null };
+
+/** A store's reading rows as lib/domain reads them (°C, tombstones left out). */
+export function toTemperatureReadings(readings: readonly Omit<ReadingRow, "store_id">[]): TemperatureReading[] {
+  return readings.filter((r) => !r.deleted_at).map((r) => ({ at: r.taken_at, value: r.temperature_c, unit: "C" as const }));
+}
+
+/** Each store's readings sorted once, for every bag in it. */
+export function prepareReadingsByStore(readings: readonly ReadingRow[]): Map<string, StoreReadings> {
+  const byStore = new Map<string, ReadingRow[]>();
+  for (const r of readings) {
+    if (r.deleted_at) continue;
+    const list = byStore.get(r.store_id);
+    if (list) list.push(r);
+    else byStore.set(r.store_id, [r]);
+  }
+  return new Map([...byStore].map(([id, rows]) => [id, prepareStoreReadings(toTemperatureReadings(rows))]));
+}
+
+const noReadings = prepareStoreReadings([]);
+
+export type BagForWindow = Pick<Bag, "start_date" | "window_start" | "window_end" | "pulled_on" | "sown_on" | "discarded_on" | "store_id">;
+
+export interface WindowClock {
+  /** Count readings up to this moment (ms); default: the end of `today`. */
+  asOf?: number;
+  /** Start of a calendar day in ms (the server passes the farm's time zone); default: the device's local midnight. */
+  startOfDay?: (day: IsoDay) => number;
+}
+
+/**
+ * The bag's effective window (lib/domain findEffectiveWindow) from its rows: its live protocol (or stored window) and
+ * its store's readings. `storeReadings`: the bag's store's readings, prepared; null or undefined when it has none here.
+ */
+export function findEffectiveBagWindow(
+  bag: BagForWindow,
+  protocol: ProtocolRow | ReconciledProtocol | null,
+  storeReadings: StoreReadings | null | undefined,
+  today: IsoDay,
+  clock: WindowClock = {},
+): EffectiveWindow {
+  const live = protocol && "deleted_at" in protocol ? (protocol.deleted_at ? null : reconcileProtocol(readProtocolRow(protocol))) : protocol;
+  const startOfDay = clock.startOfDay ?? ((d: IsoDay) => parseIsoDay(d).getTime());
+  return findEffectiveWindow({
+    bag: { startedOn: bag.start_date ?? null, pulledOn: bag.pulled_on, sownOn: bag.sown_on, discardedOn: bag.discarded_on },
+    protocol: live,
+    storedWindow: readStoredWindow(bag),
+    // A bag in a store with no readings on this phone: nothing to count, the window stays as planned (and says so).
+    readings: bag.store_id ? (storeReadings ?? noReadings) : null,
+    asOf: clock.asOf ?? startOfDay(addDaysToIsoDay(today, 1)),
+    startOfDay,
+  });
 }
 
 export interface BagRowSources {
@@ -51,20 +130,32 @@ export interface BagRowSources {
   lots: readonly Lot[];
   protocols: readonly ProtocolRow[];
   stores: readonly Store[];
+  /** The stores' temperature readings; without them every window stays as planned. */
+  readings?: readonly ReadingRow[];
 }
 
-/** One row per live bag; state comes from lib/domain for `today`. */
-export function buildBagRows({ bags, lots, protocols, stores }: BagRowSources, today: IsoDay): BagRow[] {
+/** One row per live bag; window and state come from lib/domain for `today`. */
+export function buildBagRows({ bags, lots, protocols, stores, readings = [] }: BagRowSources, today: IsoDay, clock: WindowClock = {}): BagRow[] {
   const lotById = new Map(lots.map((l) => [l.id, l]));
-  const protocolById = new Map(protocols.map((p) => [p.id, p]));
   const storeById = new Map(stores.map((s) => [s.id, s]));
+  // Work each protocol and each store's readings out once, not once per bag (Today has thousands of bags).
+  const reconciled = new Map(protocols.filter((p) => !p.deleted_at).map((p) => [p.id, reconcileProtocol(readProtocolRow(p))]));
+  const readingsByStore = prepareReadingsByStore(readings);
+  const dayStarts = new Map<IsoDay, number>();
+  const startOfDay = clock.startOfDay ?? ((d: IsoDay) => parseIsoDay(d).getTime());
+  const cachedStartOfDay = (d: IsoDay) => {
+    let ms = dayStarts.get(d);
+    if (ms === undefined) dayStarts.set(d, (ms = startOfDay(d)));
+    return ms;
+  };
+  const rowClock: WindowClock = { asOf: clock.asOf, startOfDay: cachedStartOfDay };
   const rows: BagRow[] = [];
   for (const bag of bags) {
     if (bag.deleted_at) continue;
     const lot = lotById.get(bag.lot_id);
     const protocolId = bag.protocol_id ?? lot?.protocol_id ?? null;
-    const protocol = protocolId ? (protocolById.get(protocolId) ?? null) : null;
-    const window = findBagWindow(bag, protocol);
+    const protocol = protocolId ? (reconciled.get(protocolId) ?? null) : null;
+    const effective = findEffectiveBagWindow(bag, protocol, bag.store_id ? readingsByStore.get(bag.store_id) : null, today, rowClock);
     const store = bag.store_id ? storeById.get(bag.store_id) : undefined;
     rows.push({
       id: bag.id,
@@ -80,12 +171,18 @@ export function buildBagRows({ bags, lots, protocols, stores }: BagRowSources, t
       seedCount: bag.seed_count ?? null,
       startedOn: bag.start_date ?? null,
       plannedStartOn: bag.planned_start_date ?? null,
-      window,
+      window: effective.window,
+      plannedWindow: effective.planned,
+      lostColdDays: effective.lostDays,
+      windowBasis: effective.basis,
+      windowNote: effective.reason,
       state: determineBagState(
         { startedOn: bag.start_date ?? null, pulledOn: bag.pulled_on, sownOn: bag.sown_on, discardedOn: bag.discarded_on },
-        window,
+        effective.window,
         today,
       ),
+      nextMoveOn: effective.nextMoveOn,
+      checkEveryDays: bag.check_every_days ?? null,
     });
   }
   return rows;

@@ -1,8 +1,7 @@
-import { buildBagRows, type BagRow, type BagRowSources } from "@/lib/domain/rows/bag-rows";
-import { readProtocolRow } from "@/lib/domain/rows/protocol-row";
+import { buildBagRows, type BagRow, type BagRowSources, type WindowClock } from "@/lib/domain/rows/bag-rows";
 import { formatIsoDay, type IsoDay } from "@/lib/domain/dates";
 import { buildTodaysRound, type RoundBag, type TodaysRound } from "@/lib/domain/round";
-import { defaultCheckCadence, planBagPhases, type CheckCadence, type CheckFindings, type NextCheckReason } from "@/lib/domain/schedule";
+import { defaultCheckCadence, type CheckCadence, type CheckFindings, type NextCheckReason } from "@/lib/domain/schedule";
 import type { Check } from "@/lib/schemas/check";
 
 // From the phone store's rows to lib/domain's round: no numbers are worked out here, only the shapes change.
@@ -32,7 +31,7 @@ export function toRoundBag(
   row: BagRow,
   bag: Pick<BagRowSources["bags"][number], "pulled_on" | "sown_on" | "discarded_on"> | undefined,
   lastCheck: LastCheckRow | null,
-  nextMoveOn: IsoDay | null,
+  nextMoveOn: IsoDay | null = row.nextMoveOn,
 ): RoundBag {
   return {
     id: row.id,
@@ -48,32 +47,26 @@ export function toRoundBag(
     window: row.window,
     lastCheck: lastCheck ? toCheckFindings(lastCheck) : null,
     nextMoveOn,
+    checkEveryDays: row.checkEveryDays,
   };
 }
 
-/** When a warm-then-cold bag should move to the cold store, from its protocol. */
-export function findNextMoveOn(row: Pick<BagRow, "startedOn">, protocol: BagRowSources["protocols"][number] | null): IsoDay | null {
-  if (!row.startedOn || !protocol || protocol.deleted_at) return null;
-  return planBagPhases(readProtocolRow(protocol), row.startedOn).nextMoveOn;
-}
-
-/** The round for `today` from the phone store's rows. `lastChecks`: each bag's latest check. */
+/**
+ * The round for `today` from the phone store's rows (or the server's). `lastChecks`: each bag's latest check.
+ * Windows and states are the bag rows' own (effective windows), so Today, the bags table and the digest agree.
+ */
 export function buildRoundFromRows(
   sources: BagRowSources,
   lastChecks: ReadonlyMap<string, LastCheckRow>,
   today: IsoDay,
   cadence?: CheckCadence,
+  clock?: WindowClock,
 ): TodaysRound {
-  const protocolById = new Map(sources.protocols.map((p) => [p.id, p]));
-  const lotById = new Map(sources.lots.map((l) => [l.id, l]));
   const bagById = new Map(sources.bags.map((b) => [b.id, b]));
   const roundBags: RoundBag[] = [];
-  for (const row of buildBagRows(sources, today)) {
+  for (const row of buildBagRows(sources, today, clock)) {
     if (!inTheCold.has(row.state)) continue;
-    const bag = bagById.get(row.id);
-    const protocolId = bag?.protocol_id ?? lotById.get(row.lotId)?.protocol_id ?? null;
-    const protocol = protocolId ? (protocolById.get(protocolId) ?? null) : null;
-    roundBags.push(toRoundBag(row, bag, lastChecks.get(row.id) ?? null, findNextMoveOn(row, protocol)));
+    roundBags.push(toRoundBag(row, bagById.get(row.id), lastChecks.get(row.id) ?? null));
   }
   return buildTodaysRound(roundBags, today, cadence);
 }
