@@ -11,7 +11,8 @@ import { FormMessage, PasswordInput, SubmitButton, TextLink, applyServerError, i
 export function AcceptInviteForm({ token, email, existingAccount }: { token: string; email: string; existingAccount: boolean }) {
   const { register, handleSubmit, formState, setError } = useForm({
     resolver: zodResolver(existingAccount ? InviteAcceptInput : NewMemberAcceptInput),
-    defaultValues: { token, name: "", password: "" },
+    // An existing account keeps its name: no name field, so no empty name to refuse.
+    defaultValues: { token, name: existingAccount ? undefined : "", password: "" },
   });
   const [message, setMessage] = useState<string | null>(null);
 

@@ -1,10 +1,12 @@
 // Farm accounts end to end in the production build and real Chromium on a phone: an Owner signs up a farm,
 // invites a Helper, the invite arrives over real SMTP at the local fake and shows on the mailbox page, the
-// Helper accepts it in another browser profile, and is then limited to what a Helper may do.
+// Helper accepts it in another browser profile, and is then limited to what a Helper may do. In Settings the
+// Helper changes their password (other sessions end), their name, and switches between two farms.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, BrowserContext, Page } from "playwright-core";
 import { startApp, type AppServer } from "./support/server";
 import { launchChromium, phoneContext, shoot, watchErrors } from "./support/browser";
+import { readMailbox } from "@/lib/server/mail-fake";
 
 let app: AppServer;
 let browser: Browser;
@@ -141,6 +143,87 @@ describe("a farm and its team, in the browser", () => {
     await helperPage.getByLabel("Password", { exact: true }).fill("sphagnum and sand");
     await helperPage.getByRole("button", { name: "Sign in" }).click();
     await helperPage.waitForURL(/\/today/);
+  });
+
+  it("changes the Helper's password in Settings: a wrong current one is refused in words; then other sessions end, this one stays", async () => {
+    // A second session of the Helper elsewhere (another phone), which the change must end.
+    const other = await fetch(`${app.origin}/api/auth/sign-in`, {
+      method: "POST",
+      headers: { "content-type": "application/json", origin: app.origin },
+      body: JSON.stringify({ email: "moss@bramblewick.example", password: "sphagnum and sand" }),
+    });
+    expect(other.status).toBe(200);
+    const otherCookie = other.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+    const meStatus = (cookie: string) => fetch(`${app.origin}/api/me`, { headers: { cookie } }).then((r) => r.status);
+    expect(await meStatus(otherCookie)).toBe(200);
+
+    await helperPage.goto("/settings");
+    const form = helperPage.getByRole("form", { name: "Change password" });
+    await form.getByLabel("Current password").fill("not my password");
+    await form.getByLabel("New password", { exact: true }).fill("moss on the north side");
+    await form.getByLabel("New password again").fill("moss on the north side");
+    await form.getByRole("button", { name: "Change password" }).click();
+    await form.getByText("That is not your current password.").waitFor();
+    expect(await meStatus(otherCookie)).toBe(200);
+    await shoot(helperPage, "accounts-settings-password-wrong");
+
+    await form.getByLabel("Current password").fill("sphagnum and sand");
+    await form.getByRole("button", { name: "Change password" }).click();
+    await form.getByText("Password changed. You were signed out on 1 other phone or computer. This phone stays signed in.").waitFor();
+    expect(await meStatus(otherCookie)).toBe(401);
+    expect(await helperPage.evaluate(() => fetch("/api/me").then((r) => r.status))).toBe(200);
+    expect(await form.getByLabel("Current password").inputValue()).toBe("");
+  });
+
+  it("renames the Helper in Settings; /api/me and the screen show the new name", async () => {
+    const form = helperPage.getByRole("form", { name: "Your name" });
+    await form.getByLabel("Your name").fill("Moss Fenwick-Hale");
+    await form.getByRole("button", { name: "Save name" }).click();
+    await form.getByText("Saved. Your team now sees you as Moss Fenwick-Hale.").waitFor();
+    expect(await helperPage.evaluate(() => fetch("/api/me").then((r) => r.json()))).toMatchObject({ user: { name: "Moss Fenwick-Hale" } });
+    await helperPage.reload();
+    expect(await helperPage.getByRole("form", { name: "Your name" }).getByLabel("Your name").inputValue()).toBe("Moss Fenwick-Hale");
+  });
+
+  it("shows no farm switcher for one farm; after joining a second farm, lists both with roles and switches with one tap", async () => {
+    expect(await helperPage.getByRole("list", { name: "Your farms" }).count()).toBe(0);
+
+    // Another farm invites the same person (their existing account).
+    const quill = await fetch(`${app.origin}/api/auth/sign-up`, {
+      method: "POST",
+      headers: { "content-type": "application/json", origin: app.origin },
+      body: JSON.stringify({ email: "ash@quill.example", password: "frost on the barn door", name: "Ash Quill", farmName: "Quill Seed Library" }),
+    });
+    expect(quill.status).toBe(201);
+    const ashCookie = quill.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+    const invited = await fetch(`${app.origin}/api/invites`, {
+      method: "POST",
+      headers: { "content-type": "application/json", origin: app.origin, cookie: ashCookie },
+      body: JSON.stringify({ email: "moss@bramblewick.example", role: "grower" }),
+    });
+    expect(invited.status).toBe(201);
+    const inviteMail = () => readMailbox(app.mailboxDir).find((m) => m.subject === "Ash Quill invited you to Quill Seed Library on Rimebook");
+    await expect.poll(() => Boolean(inviteMail())).toBe(true);
+    const link = inviteMail()!.links.find((l) => l.includes("/invite/"))!;
+    await helperPage.goto(link);
+    await helperPage.getByLabel("Your Rimebook password").fill("moss on the north side");
+    await helperPage.getByRole("button", { name: "Join the farm" }).click();
+    await helperPage.waitForURL(/\/today/);
+    await helperPage.getByRole("link", { name: "Rimebook: today's round" }).getByText("Quill Seed Library").waitFor();
+
+    await helperPage.goto("/settings");
+    const farms = helperPage.getByRole("list", { name: "Your farms" });
+    await farms.getByText("Open now").waitFor();
+    expect(await farms.getByRole("listitem").count()).toBe(2);
+    await shoot(helperPage, "accounts-settings");
+    await helperPage.screenshot({ path: "artifacts/settings-390x844.png" });
+
+    await farms.getByRole("button", { name: "Switch to Bramblewick Native Nursery (Helper)" }).click();
+    await helperPage.waitForURL(/\/today/);
+    await helperPage.getByRole("link", { name: "Rimebook: today's round" }).getByText("Bramblewick Native Nursery").waitFor();
+    expect(await helperPage.evaluate(() => fetch("/api/me").then((r) => r.json()))).toMatchObject({ role: "helper", farm: { name: "Bramblewick Native Nursery" } });
+    await helperPage.goto("/settings");
+    await helperPage.getByRole("list", { name: "Your farms" }).getByRole("button", { name: "Switch to Quill Seed Library (Grower)" }).waitFor();
   });
 
   it("resets a forgotten password by the e-mailed link, which then stops working", async () => {
