@@ -6,10 +6,11 @@ import { useMemo, useState } from "react";
 import { useLiveQuery } from "dexie-react-hooks";
 import { usePhotoSrc } from "@/lib/client/hooks";
 import { getLocalDb, type PendingPhoto } from "@/lib/client/db";
+import { loadStoreReadings } from "@/lib/client/fridge-reads";
 import type { Check } from "@/lib/schemas/check";
 import type { Photo } from "@/lib/schemas/photo";
 import { vocabularyLabels } from "@/lib/schemas/vocabulary";
-import { adviseOnCheck, formatBagCode, formatTemperature, measureColdExposure, prepareStoreReadings, scheduleBagCheck, type ColdExposure, type EffectiveWindow } from "@/lib/domain";
+import { addDaysToIsoDay, adviseOnCheck, formatBagCode, formatTemperature, measureColdExposure, prepareStoreReadings, scheduleBagCheck, type ColdExposure, type EffectiveWindow } from "@/lib/domain";
 import { buttonClass } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
 import { StateBadge } from "@/components/ui/StateBadge";
@@ -46,7 +47,8 @@ async function loadBagDetail(id: string) {
     db.memberships.toArray(),
   ]);
   const store = bag.store_id ? (stores.find((s) => s.id === bag.store_id) ?? null) : null;
-  const readings = store ? (await db.readings.where("store_id").equals(store.id).toArray()).filter((r) => !r.deleted_at) : [];
+  // The store's readings since the bag started (one read of the store's time index), as Today reads them.
+  const readings = store && bag.start_date ? await loadStoreReadings(db, store.id, addDaysToIsoDay(bag.start_date, -2)) : [];
   return {
     bag,
     lot,
@@ -272,7 +274,7 @@ function ColdDays({
             <p className="text-label text-ink-soft">This is a freezer: a different treatment from a fridge, not more cold.</p>
           ) : null}
           <ul className="list-disc space-y-1 pl-5 text-label text-ink-soft">
-            {data.readings.length === 0 ? <li>This store has no readings on this phone yet.</li> : null}
+            {data.readings.length === 0 ? <li>This store has no readings on this phone since the bag started.</li> : null}
             {e.assumptions.map((a) => (
               <li key={a}>{a}</li>
             ))}

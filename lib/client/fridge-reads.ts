@@ -5,6 +5,7 @@ import type { Lot } from "@/lib/schemas/lot";
 import type { Reading } from "@/lib/schemas/reading";
 import type { Store } from "@/lib/schemas/store";
 import { normalizeCrockford } from "@/lib/domain/bag-codes";
+import { addDaysToIsoDay } from "@/lib/domain/dates";
 import type { ProtocolRow, RimebookDB } from "./db";
 import { META, readMeta } from "./meta";
 
@@ -20,15 +21,29 @@ export interface FarmRows {
   readings: Reading[];
 }
 
-/** One store's live readings: one indexed read of that store, nothing per bag. */
-export async function loadStoreReadings(db: RimebookDB, storeId: string): Promise<Reading[]> {
-  return (await db.readings.where("store_id").equals(storeId).toArray()).filter((r) => !r.deleted_at);
+/**
+ * One store's live readings in time order, one read of its time index. `sinceDay`: leave out readings older than
+ * that day (a reading more than 6 h before a bag's cold began never counts for it, so older seasons cost nothing).
+ */
+export async function loadStoreReadings(db: RimebookDB, storeId: string, sinceDay: string | null = null): Promise<Reading[]> {
+  const rows = await db.readings
+    .where("[store_id+taken_at]")
+    .between([storeId, sinceDay ?? Dexie.minKey], [storeId, Dexie.maxKey], true, true)
+    .toArray();
+  return rows.filter((r) => !r.deleted_at);
 }
 
-/** Readings of the stores that hold a started bag, one read per store (a store with no bags in it costs nothing). */
+/** Readings of the stores that hold a started bag, one read per store, from two days before its earliest start. */
 export async function loadReadingsOfBagStores(db: RimebookDB, bags: readonly Pick<Bag, "store_id" | "start_date" | "deleted_at">[]): Promise<Reading[]> {
-  const storeIds = [...new Set(bags.filter((b) => !b.deleted_at && b.start_date && b.store_id).map((b) => b.store_id!))];
-  return (await Promise.all(storeIds.map((id) => loadStoreReadings(db, id)))).flat();
+  const earliest = new Map<string, string>();
+  for (const b of bags) {
+    if (b.deleted_at || !b.start_date || !b.store_id) continue;
+    const seen = earliest.get(b.store_id);
+    if (!seen || b.start_date < seen) earliest.set(b.store_id, b.start_date);
+  }
+  // Two days' margin: a bag's day starts at local midnight, a reading's time may carry any offset.
+  const reads = [...earliest].map(([id, day]) => loadStoreReadings(db, id, addDaysToIsoDay(day, -2)));
+  return (await Promise.all(reads)).flat();
 }
 
 export async function loadFarmRows(db: RimebookDB): Promise<FarmRows> {
@@ -88,7 +103,7 @@ export async function loadBagForSheet(db: RimebookDB, ref: { bagId?: string | nu
     protocolId ? db.protocols.get(protocolId) : undefined,
     bag.store_id ? db.stores.get(bag.store_id) : undefined,
     loadLastCheck(db, bag.id),
-    bag.store_id ? loadStoreReadings(db, bag.store_id) : [],
+    bag.store_id && bag.start_date ? loadStoreReadings(db, bag.store_id, addDaysToIsoDay(bag.start_date, -2)) : [],
   ]);
   return { bag, lot, protocol: protocol && !protocol.deleted_at ? protocol : null, store: store ?? null, lastCheck, readings };
 }

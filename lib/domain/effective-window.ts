@@ -1,9 +1,9 @@
 import type { TemperatureBand } from "@/lib/schemas/protocol";
-import { formatTemperature } from "./units";
+import { convertToCelsius, formatTemperature } from "./units";
 import { parseIsoDay, type IsoDay } from "./dates";
 import { defaultEffectiveBand, reconcileProtocol, type ReconciledProtocol } from "./protocols";
 import { planBagPhases, type BagRecord, type ProtocolForPlan, type PullWindow } from "./schedule";
-import { normalizeReadings, shiftPullWindow, type TemperatureReading } from "./cold-exposure";
+import { shiftPullWindow, type TemperatureReading } from "./cold-exposure";
 
 // The pull window every screen uses: the planned one, moved later by the cold days the bag lost in its store.
 // The readings of a store are sorted once; each bag then costs two binary searches and a subtraction, so a round
@@ -22,16 +22,34 @@ export interface StoreReadings {
   outBefore: Map<string, Float64Array>;
 }
 
-/** Sorts a store's readings once (input order does not matter; °F becomes °C). */
+/**
+ * A store's readings as parallel arrays (ms since 1970, °C), sorted once: by time, the colder first at equal times
+ * (as normalizeReadings sorts). Readings whose time cannot be read are left out. Already-sorted input (the phone
+ * reads a store by its time index) costs one pass.
+ */
+export function sortStoreReadings(times: Float64Array, celsius: Float64Array): StoreReadings {
+  const keep: number[] = [];
+  let sorted = true;
+  for (let i = 0; i < times.length; i++) {
+    if (!Number.isFinite(times[i]) || !Number.isFinite(celsius[i])) continue;
+    const last = keep.length ? keep[keep.length - 1] : -1;
+    if (last >= 0 && (times[i] < times[last] || (times[i] === times[last] && celsius[i] < celsius[last]))) sorted = false;
+    keep.push(i);
+  }
+  if (!sorted) keep.sort((a, b) => times[a] - times[b] || celsius[a] - celsius[b]);
+  if (sorted && keep.length === times.length) return { times, celsius, outBefore: new Map() };
+  return { times: Float64Array.from(keep, (i) => times[i]), celsius: Float64Array.from(keep, (i) => celsius[i]), outBefore: new Map() };
+}
+
+/** Prepares a store's readings once for every bag in it (input order does not matter; °F becomes °C). */
 export function prepareStoreReadings(readings: readonly TemperatureReading[]): StoreReadings {
-  const sorted = normalizeReadings(readings);
-  const times = new Float64Array(sorted.length);
-  const celsius = new Float64Array(sorted.length);
-  sorted.forEach((r, i) => {
-    times[i] = r.t;
-    celsius[i] = r.c;
+  const times = new Float64Array(readings.length);
+  const celsius = new Float64Array(readings.length);
+  readings.forEach((r, i) => {
+    times[i] = Date.parse(r.at);
+    celsius[i] = convertToCelsius(r.value, r.unit);
   });
-  return { times, celsius, outBefore: new Map() };
+  return sortStoreReadings(times, celsius);
 }
 
 const isOut = (c: number, band: TemperatureBand) => c < band.minC || c > band.maxC;

@@ -14,6 +14,7 @@ import {
   parseIsoDay,
   prepareStoreReadings,
   reconcileProtocol,
+  sortStoreReadings,
   type EffectiveWindow,
   type IsoDay,
   type PullWindow,
@@ -78,7 +79,7 @@ export function toTemperatureReadings(readings: readonly Omit<ReadingRow, "store
   return readings.filter((r) => !r.deleted_at).map((r) => ({ at: r.taken_at, value: r.temperature_c, unit: "C" as const }));
 }
 
-/** Each store's readings sorted once, for every bag in it. */
+/** Each store's readings sorted once, for every bag in it (straight into arrays: a logger season is many rows). */
 export function prepareReadingsByStore(readings: readonly ReadingRow[]): Map<string, StoreReadings> {
   const byStore = new Map<string, ReadingRow[]>();
   for (const r of readings) {
@@ -87,7 +88,17 @@ export function prepareReadingsByStore(readings: readonly ReadingRow[]): Map<str
     if (list) list.push(r);
     else byStore.set(r.store_id, [r]);
   }
-  return new Map([...byStore].map(([id, rows]) => [id, prepareStoreReadings(toTemperatureReadings(rows))]));
+  const out = new Map<string, StoreReadings>();
+  for (const [id, rows] of byStore) {
+    const times = new Float64Array(rows.length);
+    const celsius = new Float64Array(rows.length);
+    for (let i = 0; i < rows.length; i++) {
+      times[i] = Date.parse(rows[i].taken_at);
+      celsius[i] = rows[i].temperature_c;
+    }
+    out.set(id, sortStoreReadings(times, celsius));
+  }
+  return out;
 }
 
 const noReadings = prepareStoreReadings([]);
