@@ -6,6 +6,7 @@ import type { Reading } from "@/lib/schemas/reading";
 import type { Store } from "@/lib/schemas/store";
 import { normalizeCrockford } from "@/lib/domain/bag-codes";
 import { addDaysToIsoDay } from "@/lib/domain/dates";
+import type { ReadingRow } from "@/lib/domain/rows/bag-rows";
 import type { ProtocolRow, RimebookDB } from "./db";
 import { META, readMeta } from "./meta";
 
@@ -85,7 +86,7 @@ export interface BagForSheet {
   store: Store | null;
   lastCheck: Check | null;
   /** The bag's store's live readings, so the sheet shows the same effective window as Today. */
-  readings: Reading[];
+  readings: ReadingRow[];
 }
 
 /** One bag by id or by code (as the label carries it), with what its check sheet shows. */
