@@ -97,7 +97,7 @@ function BagDetailView({ data }: { data: BagDetailData }) {
     const clock = { asOf: nowMs };
     const row = buildBagRows({ bags: [bag], lots: lot ? [lot] : [], protocols: protocol ? [protocol] : [], stores, readings: data.readings }, today, clock)[0];
     const readings = toTemperatureReadings(data.readings);
-    const effective = findEffectiveBagWindow(bag, protocol, prepareStoreReadings(readings), today, clock);
+    const effective = findEffectiveBagWindow(bag, protocol, prepareStoreReadings(readings), today, clock, store?.kind ?? null);
     // The hour-by-hour story behind it, over the same span and band, so its lost days are the window's.
     const span = effective.span;
     const cold = span && store ? measureColdExposure(readings, { band: effective.band, from: new Date(span.from).toISOString(), to: new Date(span.to).toISOString() }) : null;
@@ -264,8 +264,10 @@ function ColdDays({
                 ? `: the window moves to ${formatShortDay(shifted.opensOn)}${shifted.closesOn ? `–${formatShortDay(shifted.closesOn)}` : ""}.`
                 : "."}
             </p>
-          ) : (
+          ) : effective.basis === "kept_cold" || effective.basis === "no_readings" ? (
             <p className="text-label text-moss-700">No cold lost: the window stays as planned.</p>
+          ) : (
+            <p className="text-label text-ink-soft">{effective.reason}</p>
           )}
           {e.hoursFrozen > 0 && store.kind !== "freezer" ? (
             <p className="text-label text-ink-soft">The store went below 0 °C for {e.hoursFrozen.toFixed(0)} h; frozen time is a different treatment and is not counted as cold here.</p>

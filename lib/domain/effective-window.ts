@@ -1,4 +1,5 @@
 import type { TemperatureBand } from "@/lib/schemas/protocol";
+import type { StoreKind } from "@/lib/schemas/vocabulary";
 import { convertToCelsius, formatTemperature } from "./units";
 import { parseIsoDay, type IsoDay } from "./dates";
 import { defaultEffectiveBand, reconcileProtocol, type ReconciledProtocol } from "./protocols";
@@ -123,6 +124,8 @@ export type WindowBasis =
   | "not_started"
   | "not_cold_yet"
   | "frozen_phase"
+  | "freezer"
+  | "cold_frame"
   | "no_store"
   | "no_readings"
   | "kept_cold"
@@ -153,6 +156,8 @@ export interface EffectiveWindowInput {
   storedWindow?: PullWindow | null;
   /** The bag's store's readings (prepareStoreReadings); null when the bag is in no store. */
   readings: StoreReadings | null;
+  /** Only a fridge is held to the protocol's cold band; a freezer or cold frame is its own treatment. */
+  storeKind?: StoreKind | null;
   /** Count readings up to this moment (ms), or to the pull/discard day when that came first. */
   asOf: number;
   /** Start of a calendar day in ms; local midnight unless the farm's time zone is given. */
@@ -163,9 +168,9 @@ const localStartOfDay = (day: IsoDay) => parseIsoDay(day).getTime();
 const plural = (n: number) => (n === 1 ? "1 day" : `${n} days`);
 
 /**
- * The bag's effective pull window: the planned one, shifted later by the cold days its store's readings show it lost
+ * The bag's effective pull window: the planned one, shifted later by the cold days its fridge's readings show it lost
  * during its cold phase (readings outside that span are ignored); the planned one, with the assumption said, when
- * there is nothing to count. A frozen final phase is not measured against a fridge band.
+ * there is nothing to count. A frozen final phase, a freezer or a cold frame is not measured against a fridge band.
  */
 export function findEffectiveWindow(input: EffectiveWindowInput): EffectiveWindow {
   const { bag, readings, asOf } = input;
@@ -189,6 +194,10 @@ export function findEffectiveWindow(input: EffectiveWindowInput): EffectiveWindo
   if (to <= from) return keep("not_cold_yet", "The bag's time in the cold has not begun: the window stays as planned.");
   const span = { from, to };
   if (!readings) return keep("no_store", "Not in a cold store, so no readings: the window stays as planned.");
+  // A freezer is a different treatment, not more cold (US FDA freezer −18 °C vs fridge ≤ 4 °C); a cold frame's frosts
+  // and thaws are its treatment. Neither is measured against a fridge band (the digest holds them to their own).
+  if (input.storeKind === "freezer") return keep("freezer", "In a freezer: a different treatment from a fridge, not more cold, so the window is not moved by the fridge band.", span);
+  if (input.storeKind === "cold_frame") return keep("cold_frame", "In a cold frame: its frosts and thaws are the treatment, so the window is not moved by a fridge band.", span);
   const { lostMs, readingsInSpan } = measureLostCold(readings, band, from, to);
   const lostDays = Math.max(0, Math.round(lostMs / dayMs));
   const bandWords = `${formatTemperature(band.minC)} to ${formatTemperature(band.maxC)}`;

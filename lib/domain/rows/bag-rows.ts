@@ -3,7 +3,7 @@ import type { Lot } from "@/lib/schemas/lot";
 import type { Reading } from "@/lib/schemas/reading";
 import type { Store } from "@/lib/schemas/store";
 import type { ProtocolRow } from "@/lib/client/db";
-import type { BagState, Medium } from "@/lib/schemas/vocabulary";
+import type { BagState, Medium, StoreKind } from "@/lib/schemas/vocabulary";
 import { bagStates } from "@/lib/schemas/vocabulary";
 import {
   addDaysToIsoDay,
@@ -122,6 +122,7 @@ export function findEffectiveBagWindow(
   storeReadings: StoreReadings | null | undefined,
   today: IsoDay,
   clock: WindowClock = {},
+  storeKind: StoreKind | null = null,
 ): EffectiveWindow {
   const live = protocol && "deleted_at" in protocol ? (protocol.deleted_at ? null : reconcileProtocol(readProtocolRow(protocol))) : protocol;
   const startOfDay = clock.startOfDay ?? ((d: IsoDay) => parseIsoDay(d).getTime());
@@ -131,6 +132,7 @@ export function findEffectiveBagWindow(
     storedWindow: readStoredWindow(bag),
     // A bag in a store with no readings on this phone: nothing to count, the window stays as planned (and says so).
     readings: bag.store_id ? (storeReadings ?? noReadings) : null,
+    storeKind,
     asOf: clock.asOf ?? startOfDay(addDaysToIsoDay(today, 1)),
     startOfDay,
   });
@@ -166,8 +168,8 @@ export function buildBagRows({ bags, lots, protocols, stores, readings = [] }: B
     const lot = lotById.get(bag.lot_id);
     const protocolId = bag.protocol_id ?? lot?.protocol_id ?? null;
     const protocol = protocolId ? (reconciled.get(protocolId) ?? null) : null;
-    const effective = findEffectiveBagWindow(bag, protocol, bag.store_id ? readingsByStore.get(bag.store_id) : null, today, rowClock);
     const store = bag.store_id ? storeById.get(bag.store_id) : undefined;
+    const effective = findEffectiveBagWindow(bag, protocol, bag.store_id ? readingsByStore.get(bag.store_id) : null, today, rowClock, store?.kind ?? null);
     rows.push({
       id: bag.id,
       code: bag.code,

@@ -68,7 +68,7 @@ describe("findEffectiveWindow: the window every screen uses", () => {
       "kept_cold", 0, showyPlanned, /kept its cold/,
     ],
     [
-      "a freezer at −18 °C for 3 days is not more cold: 3 days lost",
+      "a fridge that froze to −18 °C (a freezer's setting, US FDA) for 3 days: freezing is not more cold, 3 days lost",
       { readings: prepareStoreReadings(warmSpell("2026-01-03T00:00:00Z", "2026-01-06T00:00:00Z", -18)) },
       "shifted", 3, { opensOn: plus("2026-01-15", 3), closesOn: plus("2026-01-29", 3) }, /About 3 days/,
     ],
@@ -86,6 +86,16 @@ describe("findEffectiveWindow: the window every screen uses", () => {
       "a warm spell after `asOf` (readings from the future) is ignored",
       { asOf: Date.parse("2026-01-10T00:00:00Z"), readings: prepareStoreReadings(warmSpell("2026-01-10T00:00:00Z", "2026-01-14T00:00:00Z")) },
       "kept_cold", 0, showyPlanned, /kept its cold/,
+    ],
+    [
+      "a bag kept in a freezer: a different treatment, the fridge band does not move it",
+      { storeKind: "freezer", readings: prepareStoreReadings(every6h("2025-12-20T00:00:00Z", "2026-01-25T00:00:00Z", () => -18)) },
+      "freezer", 0, showyPlanned, /different treatment/,
+    ],
+    [
+      "a bag in a cold frame: its frosts and thaws are the treatment",
+      { storeKind: "cold_frame", readings: prepareStoreReadings(warmSpell("2026-01-03T00:00:00Z", "2026-01-06T00:00:00Z", -6)) },
+      "cold_frame", 0, showyPlanned, /cold frame/,
     ],
     ["a bag not started yet: the stored window, unmeasured", { bag: { startedOn: null }, protocol: null, storedWindow: { opensOn: "2026-03-01", closesOn: null, plannedPullOn: "2026-03-01", sourcesDisagree: false } }, "not_started", 0, { opensOn: "2026-03-01", closesOn: null }, /not started/],
     ["started after `asOf`: nothing to count yet", { bag: { startedOn: "2026-01-21" } }, "not_cold_yet", 0, { opensOn: "2026-02-04", closesOn: "2026-02-18" }, /not begun/],
