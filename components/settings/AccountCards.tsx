@@ -50,7 +50,7 @@ export function FarmSwitcherCard({ identity }: { identity: IdentityWithFarms }) 
               {current ? (
                 <div className="flex min-h-tap items-center justify-between gap-3 rounded-xl border-2 border-glacier-500 bg-rime-50 px-3 py-2" aria-current="true">
                   <span className="min-w-0">
-                    <span className="block truncate font-semibold">{farm.name}</span>
+                    <span className="block break-words font-semibold">{farm.name}</span>
                     <span className="block text-label text-ink-soft">{role}</span>
                   </span>
                   <span className="shrink-0 text-label font-semibold text-glacier-700">Open now</span>
@@ -64,7 +64,7 @@ export function FarmSwitcherCard({ identity }: { identity: IdentityWithFarms }) 
                   className="flex min-h-tap w-full items-center justify-between gap-3 rounded-xl border-2 border-rime-200 bg-white px-3 py-2 text-left hover:bg-rime-50 disabled:opacity-60"
                 >
                   <span className="min-w-0">
-                    <span className="block truncate font-semibold">{farm.name}</span>
+                    <span className="block break-words font-semibold">{farm.name}</span>
                     <span className="block text-label text-ink-soft">{role}</span>
                   </span>
                   <span className="shrink-0 text-label font-semibold text-glacier-700">{busy === farm.id ? "Switching…" : "Switch"}</span>

@@ -7,6 +7,7 @@ import type { Browser, BrowserContext, Page } from "playwright-core";
 import { startApp, type AppServer } from "./support/server";
 import { launchChromium, phoneContext, shoot, watchErrors } from "./support/browser";
 import { readMailbox } from "@/lib/server/mail-fake";
+import { queryServer, waitForRows } from "./support/pages";
 
 let app: AppServer;
 let browser: Browser;
@@ -218,8 +219,24 @@ describe("a farm and its team, in the browser", () => {
     await shoot(helperPage, "accounts-settings");
     await helperPage.screenshot({ path: "artifacts/settings-390x844.png" });
 
+    // With no signal and a change waiting, the phone refuses to switch and says why.
+    const digest = helperPage.getByRole("switch", { name: "Send me the daily e-mail" });
+    await expect.poll(() => digest.isEnabled()).toBe(true);
+    await helper.setOffline(true);
+    await digest.check();
+    await farms.getByRole("button", { name: "Switch to Bramblewick Native Nursery (Helper)" }).click();
+    await helperPage.getByText("1 change is still only on this phone and could not be sent to Quill Seed Library just now.", { exact: false }).waitFor();
+    expect(await helperPage.getByText("Rimebook will not switch until it has gone up.", { exact: false }).count()).toBe(1);
+    expect(await helperPage.getByRole("link", { name: "Rimebook: today's round" }).getByText("Quill Seed Library").count()).toBe(1);
+    await shoot(helperPage, "accounts-settings-switch-refused");
+
+    // Back in signal: one tap sends the waiting change to Quill Seed Library, then opens the other farm.
+    await helper.setOffline(false);
     await farms.getByRole("button", { name: "Switch to Bramblewick Native Nursery (Helper)" }).click();
     await helperPage.waitForURL(/\/today/);
+    const optIn = `select m.digest_opt_in as on_ from memberships m join farms f on f.id = m.farm_id join users u on u.id = m.user_id where u.email = ? and f.name = ?`;
+    await waitForRows<{ on_: number }>(app.databaseFile, optIn, ["moss@bramblewick.example", "Quill Seed Library"], (rows) => rows[0]?.on_ === 1);
+    expect(queryServer<{ on_: number }>(app.databaseFile, optIn, "moss@bramblewick.example", "Bramblewick Native Nursery")[0].on_).toBe(0);
     await helperPage.getByRole("link", { name: "Rimebook: today's round" }).getByText("Bramblewick Native Nursery").waitFor();
     expect(await helperPage.evaluate(() => fetch("/api/me").then((r) => r.json()))).toMatchObject({ role: "helper", farm: { name: "Bramblewick Native Nursery" } });
     await helperPage.goto("/settings");
