@@ -18,7 +18,7 @@ export function useBagSources(withReadings = false): BagRowSources | undefined {
     const db = getLocalDb();
     const [bags, lots, protocols, stores] = await Promise.all([db.bags.toArray(), db.lots.toArray(), db.protocols.toArray(), db.stores.toArray()]);
     const live = <T extends { deleted_at: string | null }>(rows: T[]) => rows.filter((r) => !r.deleted_at);
-    const readings = withReadings ? await loadReadingsOfBagStores(db, bags) : [];
+    const readings = withReadings ? await loadReadingsOfBagStores(db, bags, stores) : [];
     return { bags: live(bags), lots: live(lots), protocols: live(protocols), stores: live(stores), readings };
   }, [withReadings]);
 }

@@ -34,11 +34,19 @@ export async function loadStoreReadings(db: RimebookDB, storeId: string, sinceDa
   return rows.filter((r) => !r.deleted_at);
 }
 
-/** Readings of the stores that hold a started bag, one read per store, from two days before its earliest start. */
-export async function loadReadingsOfBagStores(db: RimebookDB, bags: readonly Pick<Bag, "store_id" | "start_date" | "deleted_at">[]): Promise<Reading[]> {
+/**
+ * Readings of the fridges that hold a started bag, one read per store, from two days before its earliest start.
+ * Freezers and cold frames are their own treatment (their readings never move a window), so they are not read here.
+ */
+export async function loadReadingsOfBagStores(
+  db: RimebookDB,
+  bags: readonly Pick<Bag, "store_id" | "start_date" | "deleted_at">[],
+  stores: readonly Pick<Store, "id" | "kind">[],
+): Promise<Reading[]> {
+  const fridges = new Set(stores.filter((s) => s.kind === "fridge").map((s) => s.id));
   const earliest = new Map<string, string>();
   for (const b of bags) {
-    if (b.deleted_at || !b.start_date || !b.store_id) continue;
+    if (b.deleted_at || !b.start_date || !b.store_id || !fridges.has(b.store_id)) continue;
     const seen = earliest.get(b.store_id);
     if (!seen || b.start_date < seen) earliest.set(b.store_id, b.start_date);
   }
@@ -49,7 +57,7 @@ export async function loadReadingsOfBagStores(db: RimebookDB, bags: readonly Pic
 
 export async function loadFarmRows(db: RimebookDB): Promise<FarmRows> {
   const [bags, lots, protocols, stores] = await Promise.all([db.bags.toArray(), db.lots.toArray(), db.protocols.toArray(), db.stores.toArray()]);
-  return { bags, lots, protocols, stores, readings: await loadReadingsOfBagStores(db, bags) };
+  return { bags, lots, protocols, stores, readings: await loadReadingsOfBagStores(db, bags, stores) };
 }
 
 /** The latest check of one bag (checks are append-only; the newest one speaks for the bag). */

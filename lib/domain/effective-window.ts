@@ -166,6 +166,14 @@ export interface EffectiveWindowInput {
 
 const localStartOfDay = (day: IsoDay) => parseIsoDay(day).getTime();
 const plural = (n: number) => (n === 1 ? "1 day" : `${n} days`);
+// Thousands of bags share a few bands: their words are made once.
+const bandWordsCache = new Map<string, string>();
+function describeBand(band: TemperatureBand): string {
+  const key = `${band.minC}|${band.maxC}`;
+  let words = bandWordsCache.get(key);
+  if (words === undefined) bandWordsCache.set(key, (words = `${formatTemperature(band.minC)} to ${formatTemperature(band.maxC)}`));
+  return words;
+}
 
 /**
  * The bag's effective pull window: the planned one, shifted later by the cold days its fridge's readings show it lost
@@ -200,7 +208,7 @@ export function findEffectiveWindow(input: EffectiveWindowInput): EffectiveWindo
   if (input.storeKind === "cold_frame") return keep("cold_frame", "In a cold frame: its frosts and thaws are the treatment, so the window is not moved by a fridge band.", span);
   const { lostMs, readingsInSpan } = measureLostCold(readings, band, from, to);
   const lostDays = Math.max(0, Math.round(lostMs / dayMs));
-  const bandWords = `${formatTemperature(band.minC)} to ${formatTemperature(band.maxC)}`;
+  const bandWords = describeBand(band);
   if (lostDays === 0) {
     return readingsInSpan === 0
       ? keep("no_readings", `No readings from the store while the bag was in the cold: the window stays as planned, assuming the store held ${bandWords}.`, span)

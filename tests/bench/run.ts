@@ -358,6 +358,9 @@ async function benchToday() {
       return performance.now() - t;
     }),
   );
+  // How much of the total is reading the fridges' readings (one read per store, from two days before its earliest bag).
+  const { loadReadingsOfBagStores } = await import("@/lib/client/fridge-reads");
+  const readingsRead = median([await time(() => loadReadingsOfBagStores(phone, rows.bags, rows.stores)), await time(() => loadReadingsOfBagStores(phone, rows.bags, rows.stores))]);
   // How much of the total is the per-bag look-up of last checks: the same answer from one read of the table.
   const perBag = median([await time(() => loadLastChecks(phone, live.map((b) => b.id))), await time(() => loadLastChecks(phone, live.map((b) => b.id)))]);
   const onePass = median(
@@ -373,6 +376,7 @@ async function benchToday() {
   phone.close();
   console.log(`  ${due} of ${BAGS} bags due today; plain scan saw ${scanned} bags in the cold; ${moved} windows moved by ${rows.readings.length.toLocaleString("en")} readings`);
   record({ bench: "Today round", measure: `${BAGS.toLocaleString("en")} bags from the phone store (Dexie read + last checks + lib/domain round)`, value: full, unit: "ms", baseline: "reading the bags table alone (toArray)", baselineValue: readOnly });
+  record({ bench: "Today round", measure: `reading ${rows.readings.length.toLocaleString("en")} fridge readings, one read per store (loadReadingsOfBagStores)`, value: readingsRead, unit: "ms", baseline: "reading the bags table alone (toArray)", baselineValue: readOnly });
   record({ bench: "Today round", measure: `last check of ${live.length.toLocaleString("en")} bags, one indexed query per bag (loadLastChecks)`, value: perBag, unit: "ms", baseline: "one read of the checks table, newest per bag", baselineValue: onePass });
   record({ bench: "Today round", measure: `lib/domain round over ${BAGS.toLocaleString("en")} bags, rows in memory`, value: domain, unit: "ms", baseline: "plain array scan of the same rows", baselineValue: Math.max(scan, 0.01) });
   record({ bench: "Today round", measure: `the same round with effective windows from ${rows.readings.length.toLocaleString("en")} readings`, value: domain, unit: "ms", baseline: "the same round, readings left out (planned windows)", baselineValue: planned });
