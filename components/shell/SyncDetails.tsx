@@ -1,9 +1,9 @@
 "use client";
 
 import Link from "next/link";
-import { useEffect, useRef } from "react";
-import { usePendingPhotos, useRejectedMutations, type SyncStatus } from "@/lib/client/hooks";
-import { dismissRejected, getSyncEngine, retryRejected } from "@/lib/client/sync";
+import { useEffect, useRef, useState } from "react";
+import { useIdentity, usePendingPhotos, useRejectedMutations, type SyncStatus } from "@/lib/client/hooks";
+import { canRetryAs, dismissRejected, getSyncEngine, retryRejected } from "@/lib/client/sync";
 import { discardPendingPhoto, retryPendingPhoto } from "@/lib/client/photos";
 import type { MutationName } from "@/lib/schemas/mutations";
 import { clockTime, mutationWords } from "./sync-words";
@@ -25,6 +25,8 @@ function when(iso: string): string {
 export function SyncDetails({ status, onClose }: { status: SyncStatus; onClose: () => void }) {
   const rejected = useRejectedMutations();
   const photos = usePendingPhotos();
+  const identity = useIdentity();
+  const [retryRefusal, setRetryRefusal] = useState<{ id: string; message: string } | null>(null);
   const closeRef = useRef<HTMLButtonElement>(null);
   useEffect(() => {
     closeRef.current?.focus();
@@ -100,10 +102,18 @@ export function SyncDetails({ status, onClose }: { status: SyncStatus; onClose: 
                       ))}
                     </ul>
                   ) : null}
+                  {retryRefusal?.id === entry.id ? <p className="mt-1 text-label font-semibold text-ember-700">{retryRefusal.message}</p> : null}
                   <div className="mt-2 flex gap-2">
-                    <button type="button" onClick={() => void retryRejected(entry.id)} className="min-h-tap rounded-card border-2 border-glacier-700 px-3 text-label font-semibold text-glacier-700">
-                      Try again
-                    </button>
+                    {/* Another person's (or farm's) work is never sent under whoever is signed in now. */}
+                    {canRetryAs(entry, identity) ? (
+                      <button
+                        type="button"
+                        onClick={() => void retryRejected(entry.id).then((r) => setRetryRefusal(r.ok ? null : { id: entry.id, message: r.message }))}
+                        className="min-h-tap rounded-card border-2 border-glacier-700 px-3 text-label font-semibold text-glacier-700"
+                      >
+                        Try again
+                      </button>
+                    ) : null}
                     <button
                       type="button"
                       onClick={() => {

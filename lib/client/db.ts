@@ -41,7 +41,8 @@ export interface OutboxEntry {
   args: unknown;
   at: string;
   status: OutboxStatus;
-  error?: { code: string; message: string } | null;
+  /** Why the server (or the phone, for another person's work) refused it; `recordedBy` names whose work it is. */
+  error?: { code: string; message: string; recordedBy?: { userId: string; farmId: string } } | null;
   tries: number;
 }
 

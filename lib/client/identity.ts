@@ -26,7 +26,14 @@ export async function adoptIdentity(me: PhoneIdentity, db: RimebookDB = getLocal
       await db.outbox
         .where("status")
         .equals("pending")
-        .modify({ status: "rejected", error: { code: "other_account", message: `Recorded while ${prev.user.name} was signed in; sign in as them to send it.` } });
+        .modify({
+          status: "rejected",
+          error: {
+            code: "other_account",
+            message: `Recorded while ${prev.user.name} was signed in at ${prev.farm.name}; sign in as them, on that farm, to send it.`,
+            recordedBy: { userId: prev.user.id, farmId: prev.farm.id },
+          },
+        });
     }
     await writeMeta(db, META.identity, { ...me, farm: { ...(samePerson ? prev.farm : {}), ...me.farm } });
   });

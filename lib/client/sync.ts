@@ -314,18 +314,31 @@ export async function dismissRejected(mutationId: string, db: RimebookDB = getLo
   await db.outbox.where("id").equals(mutationId).and((e) => e.status === "rejected").delete();
 }
 
+/** Whether a refused change may be sent by whoever is signed in now: another person's work (or another farm's) never is. */
+export function canRetryAs(entry: Pick<OutboxEntry, "error">, identity: Pick<PhoneIdentity, "user" | "farm"> | null | undefined): boolean {
+  const by = entry.error?.recordedBy;
+  if (!by) return entry.error?.code !== "other_account";
+  return Boolean(identity && identity.user.id === by.userId && identity.farm.id === by.farmId);
+}
+
+export type RetryResult = { ok: true } | { ok: false; message: string };
+
 /** Send a refused change once more (e.g. after the owner changed the person's role). */
-export async function retryRejected(mutationId: string, db: RimebookDB = getLocalDb()): Promise<void> {
+export async function retryRejected(mutationId: string, db: RimebookDB = getLocalDb()): Promise<RetryResult> {
   const entry = await db.outbox.where("id").equals(mutationId).first();
-  if (!entry || entry.n === undefined || entry.status !== "rejected") return;
+  if (!entry || entry.n === undefined || entry.status !== "rejected") return { ok: true };
+  const identity = await readMeta<PhoneIdentity>(db, META.identity);
+  if (!canRetryAs(entry, identity)) {
+    return { ok: false, message: "This was recorded by someone else, or on another farm. Only they can send it, signed in on that farm on this phone." };
+  }
   await db.transaction("rw", writeTables(db), async () => {
     await db.outbox.update(entry.n!, { status: "pending", error: null });
-    const identity = await readMeta<PhoneIdentity>(db, META.identity);
     if (identity) {
       await applyEffectsLocally(db, effectsOfEntry(entry), { farmId: identity.farm.id, userId: identity.user.id, at: entry.at });
     }
   });
   getSyncEngine().nudge();
+  return { ok: true };
 }
 
 let engine: SyncEngine | null = null;
