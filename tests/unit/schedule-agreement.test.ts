@@ -64,7 +64,8 @@ describe("a bag whose window moved reads the same everywhere", () => {
     expect(warm).toMatchObject({ state: "chilling", lostColdDays: 2, windowBasis: "shifted", window: { opensOn: plus("2026-01-15", 2), closesOn: plus("2026-01-29", 2) } });
     expect(warm.plannedWindow).toMatchObject({ opensOn: "2026-01-15", closesOn: "2026-01-29" });
     expect(warm.windowNote).toMatch(/About 2 days of cold lost/);
-    expect(describeRowWindow(warm, formatShortDay)).toBe("Opens 17 Jan");
+    expect(describeRowWindow(warm, formatShortDay)).toBe("Opens 17 Jan, 2 days later: cold lost");
+    expect(describeRowWindow(cool, formatShortDay)).toBe("Open until 29 Jan");
     expect(matchesWindowFilter(warm, "open_now", today)).toBe(false);
     expect(matchesWindowFilter(warm, "opens_this_week", today)).toBe(true);
     // The same bag in a fridge that held its band: the planned window, open since 15 Jan.

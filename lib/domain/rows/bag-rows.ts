@@ -336,13 +336,18 @@ export function sortBagRows(rows: readonly BagRow[], key: BagSortKey, descending
   return [...rows].sort((a, b) => sign * compareBagRows(key, a, b));
 }
 
-/** Short words for a row's window, e.g. "Opens 12 Mar" / "Open until 20 Mar" / "No window". */
-export function describeRowWindow(row: Pick<BagRow, "window" | "state">, formatDay: (d: IsoDay) => string): string {
+/**
+ * Short words for a row's window, e.g. "Opens 12 Mar" / "Open until 20 Mar" / "No window"; a window moved by cold
+ * the bag lost says so ("Opens 14 Mar, 2 days later: cold lost").
+ */
+export function describeRowWindow(row: Pick<BagRow, "window" | "state"> & Partial<Pick<BagRow, "lostColdDays">>, formatDay: (d: IsoDay) => string): string {
   const w = row.window;
   if (!w) return "No window";
+  const lost = row.lostColdDays ?? 0;
+  const moved = lost > 0 ? `, ${lost === 1 ? "1 day" : `${lost} days`} later: cold lost` : "";
   const closes = w.closesOn ? formatDay(w.closesOn) : "roots show";
-  if (row.state === "window_open") return `Open until ${closes}`;
-  if (row.state === "overdue") return `Latest was ${closes}`;
-  if (row.state === "chilling" || row.state === "planned") return `Opens ${formatDay(w.opensOn)}`;
-  return `${formatDay(w.opensOn)} – ${w.closesOn ? formatDay(w.closesOn) : "open-ended"}`;
+  if (row.state === "window_open") return `Open until ${closes}${moved}`;
+  if (row.state === "overdue") return `Latest was ${closes}${moved}`;
+  if (row.state === "chilling" || row.state === "planned") return `Opens ${formatDay(w.opensOn)}${moved}`;
+  return `${formatDay(w.opensOn)} – ${w.closesOn ? formatDay(w.closesOn) : "open-ended"}${moved}`;
 }
