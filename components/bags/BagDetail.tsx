@@ -97,7 +97,7 @@ function BagDetailView({ data }: { data: BagDetailData }) {
     const clock = { asOf: nowMs };
     const row = buildBagRows({ bags: [bag], lots: lot ? [lot] : [], protocols: protocol ? [protocol] : [], stores, readings: data.readings }, today, clock)[0];
     const readings = toTemperatureReadings(data.readings);
-    const effective = findEffectiveBagWindow(bag, protocol, prepareStoreReadings(readings), today, clock, store?.kind ?? null);
+    const effective = findEffectiveBagWindow(bag, protocol, prepareStoreReadings(readings), today, { ...clock, storeKind: store?.kind ?? null });
     // The hour-by-hour story behind it, over the same span and band, so its lost days are the window's.
     const span = effective.span;
     const cold = span && store ? measureColdExposure(readings, { band: effective.band, from: new Date(span.from).toISOString(), to: new Date(span.to).toISOString() }) : null;

@@ -304,14 +304,17 @@ async function benchToday() {
   }));
 
   // Each store's readings: the demo season (every six hours) plus a logger's every ten minutes over 150 days, with a
-  // warm afternoon every ten days (invented for the benchmark), so the bags' windows really move.
+  // warm five hours every ten days (invented for the benchmark), so the bags' windows really move.
+  // BENCH_LOGGER_MINUTES=0 leaves the logger out (demo readings only); another number changes its interval.
+  const loggerMinutes = Number(process.env.BENCH_LOGGER_MINUTES ?? 10);
+  const perDay = loggerMinutes > 0 ? Math.round(1440 / loggerMinutes) : 0;
   const loggerReadings = (byTable.stores ?? []).flatMap((store) =>
-    Array.from({ length: 150 * 144 }, (_, k) => ({
+    Array.from({ length: 150 * perDay }, (_, k) => ({
       ...(byTable.readings?.[0] ?? {}),
       id: randomUUID(),
       store_id: store.id,
-      taken_at: new Date(Date.now() - (150 * 144 - k) * 600_000).toISOString(),
-      temperature_c: k % 1440 < 30 ? 12.5 : 3.5 + (k % 7) / 10,
+      taken_at: new Date(Date.now() - (150 * perDay - k) * loggerMinutes * 60_000).toISOString(),
+      temperature_c: k % (10 * perDay) < (5 * 60) / loggerMinutes ? 12.5 : 3.5 + (k % 7) / 10,
       origin: "import",
       check_id: null,
       deleted_at: null,

@@ -12,9 +12,12 @@ import {
   findEffectiveWindow,
   formatBagCode,
   parseIsoDay,
+  parseReadingTime,
+  planBagPhases,
   prepareStoreReadings,
   reconcileProtocol,
   sortStoreReadings,
+  type BagPlan,
   type EffectiveWindow,
   type IsoDay,
   type PullWindow,
@@ -93,7 +96,7 @@ export function prepareReadingsByStore(readings: readonly ReadingRow[]): Map<str
     const times = new Float64Array(rows.length);
     const celsius = new Float64Array(rows.length);
     for (let i = 0; i < rows.length; i++) {
-      times[i] = Date.parse(rows[i].taken_at);
+      times[i] = parseReadingTime(rows[i].taken_at);
       celsius[i] = rows[i].temperature_c;
     }
     out.set(id, sortStoreReadings(times, celsius));
@@ -116,24 +119,31 @@ export interface WindowClock {
  * The bag's effective window (lib/domain findEffectiveWindow) from its rows: its live protocol (or stored window) and
  * its store's readings. `storeReadings`: the bag's store's readings, prepared; null or undefined when it has none here.
  */
+export interface BagWindowOptions extends WindowClock {
+  /** Only a fridge's readings move the window. */
+  storeKind?: StoreKind | null;
+  /** The bag's phase plan when already worked out (bags started together on one protocol share it). */
+  plan?: BagPlan | null;
+}
+
 export function findEffectiveBagWindow(
   bag: BagForWindow,
   protocol: ProtocolRow | ReconciledProtocol | null,
   storeReadings: StoreReadings | null | undefined,
   today: IsoDay,
-  clock: WindowClock = {},
-  storeKind: StoreKind | null = null,
+  options: BagWindowOptions = {},
 ): EffectiveWindow {
   const live = protocol && "deleted_at" in protocol ? (protocol.deleted_at ? null : reconcileProtocol(readProtocolRow(protocol))) : protocol;
-  const startOfDay = clock.startOfDay ?? ((d: IsoDay) => parseIsoDay(d).getTime());
+  const startOfDay = options.startOfDay ?? ((d: IsoDay) => parseIsoDay(d).getTime());
   return findEffectiveWindow({
     bag: { startedOn: bag.start_date ?? null, pulledOn: bag.pulled_on, sownOn: bag.sown_on, discardedOn: bag.discarded_on },
     protocol: live,
     storedWindow: readStoredWindow(bag),
+    plan: options.plan,
     // A bag in a store with no readings on this phone: nothing to count, the window stays as planned (and says so).
     readings: bag.store_id ? (storeReadings ?? noReadings) : null,
-    storeKind,
-    asOf: clock.asOf ?? startOfDay(addDaysToIsoDay(today, 1)),
+    storeKind: options.storeKind ?? null,
+    asOf: options.asOf ?? startOfDay(addDaysToIsoDay(today, 1)),
     startOfDay,
   });
 }
@@ -161,7 +171,14 @@ export function buildBagRows({ bags, lots, protocols, stores, readings = [] }: B
     if (ms === undefined) dayStarts.set(d, (ms = startOfDay(d)));
     return ms;
   };
-  const rowClock: WindowClock = { asOf: clock.asOf, startOfDay: cachedStartOfDay };
+  // Bags started the same day on the same protocol share one phase plan.
+  const plans = new Map<string, BagPlan | null>();
+  const planFor = (protocolId: string, protocol: ReconciledProtocol, startedOn: IsoDay) => {
+    const key = `${protocolId}|${startedOn}`;
+    let plan = plans.get(key);
+    if (plan === undefined) plans.set(key, (plan = planBagPhases(protocol, startedOn)));
+    return plan;
+  };
   const rows: BagRow[] = [];
   for (const bag of bags) {
     if (bag.deleted_at) continue;
@@ -169,7 +186,12 @@ export function buildBagRows({ bags, lots, protocols, stores, readings = [] }: B
     const protocolId = bag.protocol_id ?? lot?.protocol_id ?? null;
     const protocol = protocolId ? (reconciled.get(protocolId) ?? null) : null;
     const store = bag.store_id ? storeById.get(bag.store_id) : undefined;
-    const effective = findEffectiveBagWindow(bag, protocol, bag.store_id ? readingsByStore.get(bag.store_id) : null, today, rowClock, store?.kind ?? null);
+    const effective = findEffectiveBagWindow(bag, protocol, bag.store_id ? readingsByStore.get(bag.store_id) : null, today, {
+      asOf: clock.asOf,
+      startOfDay: cachedStartOfDay,
+      storeKind: store?.kind ?? null,
+      plan: protocol && protocolId && bag.start_date ? planFor(protocolId, protocol, bag.start_date) : undefined,
+    });
     rows.push({
       id: bag.id,
       code: bag.code,

@@ -5,6 +5,7 @@ import {
   findEffectiveWindow,
   measureColdExposure,
   measureLostCold,
+  parseReadingTime,
   prepareStoreReadings,
   starterProtocols,
   type EffectiveWindowInput,
@@ -174,5 +175,30 @@ describe("measureLostCold counts exactly as measureColdExposure does (its defaul
     expect(fast.lostMs / 3_600_000).toBe(hours);
     const full = measureColdExposure(readings, { band, from: new Date(from).toISOString(), to: new Date(to).toISOString() });
     expect(full.hoursAbove + full.hoursBelow).toBeCloseTo(hours, 9);
+  });
+});
+
+describe("parseReadingTime reads stored timestamps as Date.parse does (ECMAScript date-time string format)", () => {
+  it("for any instant written by toISOString (property)", () => {
+    fc.assert(
+      fc.property(fc.date({ min: new Date("1000-01-01T00:00:00Z"), max: new Date("9999-12-31T23:59:59.999Z"), noInvalidDate: true }), (d) => {
+        const at = d.toISOString();
+        expect(parseReadingTime(at)).toBe(Date.parse(at));
+      }),
+      { numRuns: 500 },
+    );
+  });
+
+  it.each([
+    "2024-02-29T12:00:00.000Z", // leap day
+    "2023-02-29T12:00:00.000Z", // no such day
+    "2026-13-01T00:00:00.000Z",
+    "2026-01-01T24:00:00.000Z",
+    "2026-01-05T06:00:00+01:00",
+    "2026-01-05T06:00:00Z",
+    "2026-01-05 06:00",
+    "not a time at all, honestly",
+  ])("%s", (at) => {
+    expect(Object.is(parseReadingTime(at), Date.parse(at))).toBe(true);
   });
 });
