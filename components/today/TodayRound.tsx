@@ -19,7 +19,8 @@ import { ScanGlyph } from "./ScanGlyph";
 
 async function loadRound(today: string) {
   const db = getLocalDb();
-  const [rows, identity, fetched] = await Promise.all([loadFarmRows(db), loadIdentity(db), loadFarmFetched(db)]);
+  // Readings only from the fridges' bags still in the cold: the round never shows a pulled bag.
+  const [rows, identity, fetched] = await Promise.all([loadFarmRows(db, "in_cold"), loadIdentity(db), loadFarmFetched(db)]);
   const live = rows.bags.filter((b) => !b.deleted_at && b.start_date && !b.pulled_on && !b.sown_on && !b.discarded_on);
   const lastChecks = await loadLastChecks(db, live.map((b) => b.id));
   // Windows move by the cold lost up to now (each store's readings, read once): the same rows as the bags table.

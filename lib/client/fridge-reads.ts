@@ -35,18 +35,26 @@ export async function loadStoreReadings(db: RimebookDB, storeId: string, sinceDa
 }
 
 /**
+ * Which bags' readings to read: "all" started bags (the bags table, labels: a pulled bag's window stays as it was), or
+ * only those still "in_cold" (Today: years of pulled bags never make a fridge's whole history load).
+ */
+export type ReadingsFor = "all" | "in_cold";
+
+/**
  * Readings of the fridges that hold a started bag, one read per store, from two days before its earliest start.
  * Freezers and cold frames are their own treatment (their readings never move a window), so they are not read here.
  */
 export async function loadReadingsOfBagStores(
   db: RimebookDB,
-  bags: readonly Pick<Bag, "store_id" | "start_date" | "deleted_at">[],
+  bags: readonly Pick<Bag, "store_id" | "start_date" | "deleted_at" | "pulled_on" | "sown_on" | "discarded_on">[],
   stores: readonly Pick<Store, "id" | "kind">[],
+  which: ReadingsFor = "all",
 ): Promise<Reading[]> {
   const fridges = new Set(stores.filter((s) => s.kind === "fridge").map((s) => s.id));
   const earliest = new Map<string, string>();
   for (const b of bags) {
     if (b.deleted_at || !b.start_date || !b.store_id || !fridges.has(b.store_id)) continue;
+    if (which === "in_cold" && (b.pulled_on || b.sown_on || b.discarded_on)) continue;
     const seen = earliest.get(b.store_id);
     if (!seen || b.start_date < seen) earliest.set(b.store_id, b.start_date);
   }
@@ -55,9 +63,9 @@ export async function loadReadingsOfBagStores(
   return (await Promise.all(reads)).flat();
 }
 
-export async function loadFarmRows(db: RimebookDB): Promise<FarmRows> {
+export async function loadFarmRows(db: RimebookDB, readingsFor: ReadingsFor = "all"): Promise<FarmRows> {
   const [bags, lots, protocols, stores] = await Promise.all([db.bags.toArray(), db.lots.toArray(), db.protocols.toArray(), db.stores.toArray()]);
-  return { bags, lots, protocols, stores, readings: await loadReadingsOfBagStores(db, bags, stores) };
+  return { bags, lots, protocols, stores, readings: await loadReadingsOfBagStores(db, bags, stores, readingsFor) };
 }
 
 /** The latest check of one bag (checks are append-only; the newest one speaks for the bag). */

@@ -73,23 +73,26 @@ function storeBand(kind: string): TemperatureBand | null {
 
 const placeOf = (storeName: string, box: string) => (box && box !== "No box" ? `${storeName}, ${box}` : storeName);
 
-async function loadSources(db: Knex, farmId: string): Promise<BagRowSources & { readings: ReadingRow[] }> {
+async function loadSources(db: Knex, farmId: string, now: Date): Promise<BagRowSources & { readings: ReadingRow[] }> {
   const live = (t: string) => db(t).where({ farm_id: farmId }).whereNull("deleted_at");
-  const [bags, lots, protocols, stores, readings] = await Promise.all([
-    live("bags"),
-    live("lots"),
-    live("protocols"),
-    live("stores"),
-    // Every store's readings, read once: they move the bags' windows (as on the phone) and show the last day's excursions.
-    live("readings").select("store_id", "taken_at", "temperature_c"),
-  ]);
+  const [bags, lots, protocols, stores] = await Promise.all([live("bags"), live("lots"), live("protocols"), live("stores")]);
+  // The readings, read once: from two days before the earliest bag still in the cold (they move windows, as on the
+  // phone) or three days back for the last day's excursions, whichever is earlier. Older seasons are never read.
   const parse = (t: string, rows: Record<string, unknown>[]) => rows.map((r) => parseRow(t, r));
+  const parsedBags = parse("bags", bags) as unknown as BagRowSources["bags"];
+  let since = addDaysToIsoDay(now.toISOString().slice(0, 10), -3);
+  for (const b of parsedBags) {
+    if (!b.start_date || b.pulled_on || b.sown_on || b.discarded_on) continue;
+    const from = addDaysToIsoDay(b.start_date, -2);
+    if (from < since) since = from;
+  }
+  const readings: Record<string, unknown>[] = await live("readings").where("taken_at", ">=", since).select("store_id", "taken_at", "temperature_c");
   return {
-    bags: parse("bags", bags),
+    bags: parsedBags,
     lots: parse("lots", lots),
     protocols: parse("protocols", protocols),
     stores: parse("stores", stores),
-    readings: readings.map((r: Record<string, unknown>) => ({ store_id: String(r.store_id), taken_at: String(r.taken_at), temperature_c: Number(r.temperature_c) })),
+    readings: readings.map((r) => ({ store_id: String(r.store_id), taken_at: String(r.taken_at), temperature_c: Number(r.temperature_c) })),
   } as unknown as BagRowSources & { readings: ReadingRow[] };
 }
 
@@ -111,7 +114,7 @@ export async function buildFarmDigest(db: Knex, farmId: string, day: string, now
   const timezone = isKnownTimeZone(farmRow.timezone) ? farmRow.timezone : "UTC";
   const farm = { id: farmRow.id, name: farmRow.name, timezone, unit: (farmRow.temperature_unit === "F" ? "F" : "C") as TemperatureUnit };
 
-  const sources = await loadSources(db, farmId);
+  const sources = await loadSources(db, farmId, now);
   const lastChecks = await loadLastChecks(db, farmId);
   // Windows moved by the cold lost up to now, on the farm's own calendar: the same rows the phone builds.
   const clock: WindowClock = { asOf: now.getTime(), startOfDay: (d) => convertZonedTimeToEpoch(Date.parse(`${d}T00:00:00Z`), timezone) };

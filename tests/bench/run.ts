@@ -334,7 +334,7 @@ async function benchToday() {
 
   let due = 0;
   const loadRound = async () => {
-    const rows = await loadFarmRows(phone);
+    const rows = await loadFarmRows(phone, "in_cold");
     const live = rows.bags.filter((b) => !b.deleted_at && b.start_date && !b.pulled_on && !b.sown_on && !b.discarded_on);
     const lastChecks = await loadLastChecks(phone, live.map((b) => b.id));
     due = buildRoundFromRows(rows, lastChecks, today, cadenceFor(7)).items.length;
@@ -342,7 +342,7 @@ async function benchToday() {
   await loadRound();
   const full = median([await time(loadRound), await time(loadRound), await time(loadRound)]);
   // Just the domain part, from rows already in memory.
-  const rows = await loadFarmRows(phone);
+  const rows = await loadFarmRows(phone, "in_cold");
   const live = rows.bags.filter((b) => !b.deleted_at && b.start_date && !b.pulled_on && !b.sown_on && !b.discarded_on);
   const lastChecks = await loadLastChecks(phone, live.map((b) => b.id));
   const domain = median(await Promise.all([0, 1, 2, 3, 4].map(() => time(() => buildRoundFromRows(rows, lastChecks, today, cadenceFor(7))))));
@@ -363,7 +363,7 @@ async function benchToday() {
   );
   // How much of the total is reading the fridges' readings (one read per store, from two days before its earliest bag).
   const { loadReadingsOfBagStores } = await import("@/lib/client/fridge-reads");
-  const readingsRead = median([await time(() => loadReadingsOfBagStores(phone, rows.bags, rows.stores)), await time(() => loadReadingsOfBagStores(phone, rows.bags, rows.stores))]);
+  const readingsRead = median([await time(() => loadReadingsOfBagStores(phone, rows.bags, rows.stores, "in_cold")), await time(() => loadReadingsOfBagStores(phone, rows.bags, rows.stores, "in_cold"))]);
   // How much of the total is the per-bag look-up of last checks: the same answer from one read of the table.
   const perBag = median([await time(() => loadLastChecks(phone, live.map((b) => b.id))), await time(() => loadLastChecks(phone, live.map((b) => b.id)))]);
   const onePass = median(
