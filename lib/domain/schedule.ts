@@ -215,6 +215,12 @@ export function scheduleNextCheck(input: NextCheckInput): NextCheck | null {
           : "Routine check.";
   }
 
+  // Past the latest pull today, even when the last check was before the window: say so, not "window opens".
+  if (state === "overdue" && reason !== "overdue") {
+    reason = "overdue";
+    note = "Past the latest pull date: pull and sow, or note why it stays.";
+  }
+
   // A move still not recorded stays due (and shows as late) until the bag's move is recorded.
   if (input.nextMoveOn && input.nextMoveOn <= on) {
     on = input.nextMoveOn;

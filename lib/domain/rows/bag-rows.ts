@@ -115,10 +115,6 @@ export interface WindowClock {
   startOfDay?: (day: IsoDay) => number;
 }
 
-/**
- * The bag's effective window (lib/domain findEffectiveWindow) from its rows: its live protocol (or stored window) and
- * its store's readings. `storeReadings`: the bag's store's readings, prepared; null or undefined when it has none here.
- */
 export interface BagWindowOptions extends WindowClock {
   /** Only a fridge's readings move the window. */
   storeKind?: StoreKind | null;
@@ -126,6 +122,10 @@ export interface BagWindowOptions extends WindowClock {
   plan?: BagPlan | null;
 }
 
+/**
+ * The bag's effective window (lib/domain findEffectiveWindow) from its rows: its live protocol (or stored window) and
+ * its store's readings. `storeReadings`: the bag's store's readings, prepared; null or undefined when it has none here.
+ */
 export function findEffectiveBagWindow(
   bag: BagForWindow,
   protocol: ProtocolRow | ReconciledProtocol | null,

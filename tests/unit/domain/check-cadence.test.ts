@@ -27,6 +27,8 @@ describe("next check with the bag's own rhythm", () => {
     ["soggy medium: the next-day follow-up beats a 10-day rhythm", { checkEveryDays: 10, lastCheck: check("2024-01-08", { moisture: "soggy" }) }, plus("2024-01-08", 1), "follow_up", /dried/],
     ["mould spots: next day beats a 5-day rhythm", { checkEveryDays: 5, lastCheck: check("2024-01-08", { mould: "spots" }) }, plus("2024-01-08", 1), "follow_up", /mould/],
     ["dry medium: a 1-day rhythm comes before the 2-day follow-up", { checkEveryDays: 1, lastCheck: check("2024-01-08", { moisture: "dry" }) }, plus("2024-01-08", 1), "weekly", /every day/],
+    ["past the latest pull since a check before the window: overdue, not 'window opens'", { checkEveryDays: 10, state: "overdue", lastCheck: check("2024-01-25") }, "2024-01-29", "overdue", /latest pull/],
+    ["past the latest pull after a check inside the window: overdue, not 'check daily'", { state: "overdue", lastCheck: check("2024-02-10") }, "2024-02-11", "overdue", /latest pull/],
     ["roots still mean pull now", { checkEveryDays: 10, lastCheck: check("2024-01-08", { sprouts: "first_roots" }) }, "2024-01-08", "pull_now", /pull now/],
   ] as const)("%s", (_name, over, on, reason, note) => {
     const next = scheduleNextCheck({ ...base, ...over } as NextCheckInput)!;
