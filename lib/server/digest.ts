@@ -1,8 +1,8 @@
 import "server-only";
 import type { Knex } from "knex";
-import { buildBagRows, type BagRowSources, type ReadingRow, type WindowClock } from "@/lib/domain/rows/bag-rows";
+import { buildBagRows } from "@/lib/domain/rows/bag-rows";
 import { buildRoundFromRows, cadenceFor, type LastCheckRow } from "@/lib/domain/rows/round-input";
-import { convertZonedTimeToEpoch, findZonedDay, isKnownTimeZone } from "@/lib/domain/csv";
+import { findZonedDay, isKnownTimeZone } from "@/lib/domain/csv";
 import {
   addDaysToIsoDay,
   countDaysBetween,
@@ -18,6 +18,7 @@ import type { TemperatureBand } from "@/lib/schemas/protocol";
 import { vocabularyLabels, type Mould } from "@/lib/schemas/vocabulary";
 import { appLink, sendMail, type Mail } from "./mail";
 import { parseRow } from "./sync/rows";
+import { farmWindowClock, loadBagRowSources } from "./bag-rows";
 
 // The daily digest: once per farm per day, to the members who asked for it, what the bags and
 // cold stores need today. The same lib/domain round the phone shows on Today, worked out on the
@@ -73,29 +74,6 @@ function storeBand(kind: string): TemperatureBand | null {
 
 const placeOf = (storeName: string, box: string) => (box && box !== "No box" ? `${storeName}, ${box}` : storeName);
 
-async function loadSources(db: Knex, farmId: string, now: Date): Promise<BagRowSources & { readings: ReadingRow[] }> {
-  const live = (t: string) => db(t).where({ farm_id: farmId }).whereNull("deleted_at");
-  const [bags, lots, protocols, stores] = await Promise.all([live("bags"), live("lots"), live("protocols"), live("stores")]);
-  // The readings, read once: from two days before the earliest bag still in the cold (they move windows, as on the
-  // phone) or three days back for the last day's excursions, whichever is earlier. Older seasons are never read.
-  const parse = (t: string, rows: Record<string, unknown>[]) => rows.map((r) => parseRow(t, r));
-  const parsedBags = parse("bags", bags) as unknown as BagRowSources["bags"];
-  let since = addDaysToIsoDay(now.toISOString().slice(0, 10), -3);
-  for (const b of parsedBags) {
-    if (!b.start_date || b.pulled_on || b.sown_on || b.discarded_on) continue;
-    const from = addDaysToIsoDay(b.start_date, -2);
-    if (from < since) since = from;
-  }
-  const readings: Record<string, unknown>[] = await live("readings").where("taken_at", ">=", since).select("store_id", "taken_at", "temperature_c");
-  return {
-    bags: parsedBags,
-    lots: parse("lots", lots),
-    protocols: parse("protocols", protocols),
-    stores: parse("stores", stores),
-    readings: readings.map((r) => ({ store_id: String(r.store_id), taken_at: String(r.taken_at), temperature_c: Number(r.temperature_c) })),
-  } as unknown as BagRowSources & { readings: ReadingRow[] };
-}
-
 async function loadLastChecks(db: Knex, farmId: string): Promise<Map<string, LastCheckRow>> {
   const latest = db("checks").where({ farm_id: farmId }).whereNull("deleted_at").groupBy("bag_id").select("bag_id").max("checked_at as last");
   const rows: Record<string, unknown>[] = await db("checks as c")
@@ -114,10 +92,11 @@ export async function buildFarmDigest(db: Knex, farmId: string, day: string, now
   const timezone = isKnownTimeZone(farmRow.timezone) ? farmRow.timezone : "UTC";
   const farm = { id: farmRow.id, name: farmRow.name, timezone, unit: (farmRow.temperature_unit === "F" ? "F" : "C") as TemperatureUnit };
 
-  const sources = await loadSources(db, farmId, now);
+  // The readings also serve the last day's excursions: three days back at least.
+  const sources = await loadBagRowSources(db, farmId, addDaysToIsoDay(now.toISOString().slice(0, 10), -3));
   const lastChecks = await loadLastChecks(db, farmId);
   // Windows moved by the cold lost up to now, on the farm's own calendar: the same rows the phone builds.
-  const clock: WindowClock = { asOf: now.getTime(), startOfDay: (d) => convertZonedTimeToEpoch(Date.parse(`${d}T00:00:00Z`), timezone) };
+  const clock = farmWindowClock(timezone, now);
   const rows = buildBagRows(sources, day, clock);
   const species = (r: { species: string; commonName: string }) => (r.commonName ? `${r.species} (${r.commonName})` : r.species);
 

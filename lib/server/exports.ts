@@ -4,9 +4,10 @@ import Papa from "papaparse";
 import { z } from "zod";
 import { notFound } from "@/lib/errors";
 import { findZonedDay, isKnownTimeZone } from "@/lib/domain/csv";
-import { countDaysBetween, determineBagState } from "@/lib/domain";
-import { vocabularyLabels, type BagState, type CheckAction, type Moisture, type Mould, type Sprouts } from "@/lib/schemas/vocabulary";
+import { countDaysBetween } from "@/lib/domain";
+import { vocabularyLabels, type CheckAction, type Moisture, type Mould, type Sprouts } from "@/lib/schemas/vocabulary";
 import { parseRow } from "./sync/rows";
+import { loadFarmBagRows } from "./bag-rows";
 
 // CSV exports of the farm's records and the Owner's full-farm JSON backup. Only the member's own
 // farm is ever read; tombstoned rows stay out of the CSVs (the backup keeps them, marked).
@@ -34,12 +35,6 @@ function farmToday(farm: Farm, now: Date): string {
   return findZonedDay(now, isKnownTimeZone(farm.timezone) ? farm.timezone : "UTC");
 }
 
-/** The bag's state from its own dates and the stored window, on the farm's today. */
-function stateOf(bag: { start_date: string | null; pulled_on: string | null; sown_on: string | null; discarded_on: string | null; window_start: string | null; window_end: string | null }, today: string): BagState {
-  const window = bag.window_start ? { opensOn: bag.window_start, closesOn: bag.window_end, plannedPullOn: bag.window_start, sourcesDisagree: false } : null;
-  return determineBagState({ startedOn: bag.start_date, pulledOn: bag.pulled_on, sownOn: bag.sown_on, discardedOn: bag.discarded_on }, window, today);
-}
-
 const bagJoin = (db: Knex, farmId: string) =>
   db("bags as b")
     .leftJoin("lots as l", "l.id", "b.lot_id")
@@ -52,33 +47,42 @@ async function exportRows(db: Knex, farm: Farm, what: ExportKind, now: Date): Pr
   const inF = (c: number | null) => (c === null ? null : round1((c * 9) / 5 + 32));
   switch (what) {
     case "bags": {
+      // State and window as the phone shows them: the same lib/domain rows (windows moved by cold lost in the store).
       const today = farmToday(farm, now);
+      const timezone = isKnownTimeZone(farm.timezone) ? farm.timezone : "UTC";
+      const shown = new Map((await loadFarmBagRows(db, f, today, timezone, now)).map((r) => [r.id, r]));
       const rows = await bagJoin(db, f)
         .leftJoin("stores as s", "s.id", "b.store_id")
         .orderBy("b.code")
         .select("b.*", "l.species", "l.common_name", "l.source as lot_source", "l.year as lot_year", "s.name as store_name");
-      return rows.map((b) => ({
-        code: b.code,
-        species: b.species,
-        common_name: b.common_name,
-        lot_source: b.lot_source,
-        lot_year: b.lot_year,
-        state: vocabularyLabels.bagState[stateOf(b, today)],
-        cold_store: b.store_name,
-        box: b.box,
-        medium: vocabularyLabels.medium[b.medium as keyof typeof vocabularyLabels.medium] ?? b.medium,
-        seed_count: b.seed_count,
-        start_date: b.start_date,
-        planned_start_date: b.planned_start_date,
-        window_opens: b.window_start,
-        window_closes: b.window_end,
-        pulled_on: b.pulled_on,
-        sown_on: b.sown_on,
-        discarded_on: b.discarded_on,
-        discard_reason: b.discard_reason,
-        note: b.note,
-        bag_id: b.id,
-      }));
+      return rows.map((b) => {
+        const row = shown.get(b.id);
+        return {
+          code: b.code,
+          species: b.species,
+          common_name: b.common_name,
+          lot_source: b.lot_source,
+          lot_year: b.lot_year,
+          state: row ? vocabularyLabels.bagState[row.state] : null,
+          cold_store: b.store_name,
+          box: b.box,
+          medium: vocabularyLabels.medium[b.medium as keyof typeof vocabularyLabels.medium] ?? b.medium,
+          seed_count: b.seed_count,
+          start_date: b.start_date,
+          planned_start_date: b.planned_start_date,
+          window_opens: row?.window?.opensOn ?? b.window_start,
+          window_closes: row?.window?.closesOn ?? b.window_end,
+          planned_window_opens: row?.plannedWindow?.opensOn ?? b.window_start,
+          planned_window_closes: row?.plannedWindow?.closesOn ?? b.window_end,
+          cold_days_lost: row?.lostColdDays ?? 0,
+          pulled_on: b.pulled_on,
+          sown_on: b.sown_on,
+          discarded_on: b.discarded_on,
+          discard_reason: b.discard_reason,
+          note: b.note,
+          bag_id: b.id,
+        };
+      });
     }
     case "checks": {
       const rows = await bagJoin(db, f)
@@ -199,7 +203,7 @@ export async function exportCsv(db: Knex, farmId: string, what: ExportKind, now 
 
 // Header rows for an empty export, so a blank sheet still names its columns.
 const emptyColumns: Record<ExportKind, (withF: boolean) => string[]> = {
-  bags: () => ["code", "species", "common_name", "lot_source", "lot_year", "state", "cold_store", "box", "medium", "seed_count", "start_date", "planned_start_date", "window_opens", "window_closes", "pulled_on", "sown_on", "discarded_on", "discard_reason", "note", "bag_id"],
+  bags: () => ["code", "species", "common_name", "lot_source", "lot_year", "state", "cold_store", "box", "medium", "seed_count", "start_date", "planned_start_date", "window_opens", "window_closes", "planned_window_opens", "planned_window_closes", "cold_days_lost", "pulled_on", "sown_on", "discarded_on", "discard_reason", "note", "bag_id"],
   checks: (f) => ["checked_at", "bag_code", "species", "moisture", "mould", "sprouts", "actions", "temperature_c", ...(f ? ["temperature_f"] : []), "note", "checked_by", "check_id", "bag_id"],
   readings: (f) => ["cold_store", "kind", "taken_at", "temperature_c", ...(f ? ["temperature_f"] : []), "origin", "reading_id", "store_id"],
   sowings: () => ["sown_on", "bag_code", "species", "tray", "cells", "seeds_sown", "note", "sowing_id", "bag_id"],

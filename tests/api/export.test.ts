@@ -71,6 +71,26 @@ describe("GET /api/export", () => {
     ]);
   });
 
+  it("bags: the window and state the phone shows, moved by cold lost in the fridge, beside the planned window", async () => {
+    // A separate farm: a bag 20 days into the cold whose fridge sat at 15 °C for two whole days (hourly readings).
+    const grower = await signedInMember(ctx.db, { role: "owner", farmName: "Warm Door Farm" });
+    const f = grower.farmId;
+    const day = (offset: number) => new Date(Date.now() + offset * 86_400_000).toISOString().slice(0, 10);
+    const store = await addStore(ctx.db, f, { name: "Shed fridge" });
+    const lot = await addLot(ctx.db, f, { species: "Asclepias tuberosa" });
+    await addBag(ctx.db, f, { code: "WD3K9P", lotId: lot, storeId: store, start: day(-20), windowStart: day(10), windowEnd: day(20) });
+    const from = Date.parse(`${day(-20)}T00:00:00.000Z`);
+    for (let h = 0; h <= 20 * 24 - 6; h++) {
+      const warm = h >= 5 * 24 && h < 7 * 24;
+      await addReading(ctx.db, f, store, new Date(from + h * 3_600_000).toISOString(), warm ? 15 : 3);
+    }
+    const { table } = await download(grower, "what=bags");
+    // Two days lost in the cold (common practice: time above the band does not count towards the chilling).
+    expect(table.data).toEqual([
+      expect.objectContaining({ code: "WD3K9P", state: "Chilling", planned_window_opens: day(10), planned_window_closes: day(20), window_opens: day(12), window_closes: day(22), cold_days_lost: "2" }),
+    ]);
+  });
+
   it("checks: findings and actions in words, who checked, and a note that cannot run as a spreadsheet formula", async () => {
     const { table } = await download(owner, "what=checks");
     expect(table.data).toHaveLength(1);
