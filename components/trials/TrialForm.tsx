@@ -141,7 +141,7 @@ export function EditTrialForm({ trial, lots, onDone }: { trial: Trial; lots: rea
   return (
     <form onSubmit={submit} noValidate className="space-y-4" aria-label={`Edit ${trial.name}`}>
       <Field label="Name" htmlFor="edit-trial-name" error={errors.name?.message}>
-        <Input id="edit-trial-name" aria-invalid={!!errors.name} {...register("name")} />
+        <Input id="edit-trial-name" aria-invalid={!!errors.name} aria-describedby={errors.name ? "edit-trial-name-error" : undefined} {...register("name")} />
       </Field>
       <Field label="Seed lot" htmlFor="edit-trial-lot" hint="The trial lists this lot's bags. Bags already in an arm stay in it.">
         <Select id="edit-trial-lot" {...register("lot_id", { setValueAs: (v) => v || null })}>
@@ -156,10 +156,10 @@ export function EditTrialForm({ trial, lots, onDone }: { trial: Trial; lots: rea
         </Select>
       </Field>
       <Field label="Question" htmlFor="edit-trial-question" error={errors.question?.message}>
-        <TextArea id="edit-trial-question" rows={2} aria-invalid={!!errors.question} {...register("question", { setValueAs: (v) => v || null })} />
+        <TextArea id="edit-trial-question" rows={2} aria-invalid={!!errors.question} aria-describedby={errors.question ? "edit-trial-question-error" : undefined} {...register("question", { setValueAs: (v) => v || null })} />
       </Field>
       <Field label="Notes" htmlFor="edit-trial-notes" hint="What you did differently, what you saw, what to try next." error={errors.notes?.message}>
-        <TextArea id="edit-trial-notes" rows={3} aria-invalid={!!errors.notes} {...register("notes", { setValueAs: (v) => v || null })} />
+        <TextArea id="edit-trial-notes" rows={3} aria-invalid={!!errors.notes} aria-describedby={errors.notes ? "edit-trial-notes-error" : undefined} {...register("notes", { setValueAs: (v) => v || null })} />
       </Field>
       <Notice>{saveError}</Notice>
       <div className="flex gap-3">
