@@ -1,14 +1,13 @@
 "use client";
 
 import Link from "next/link";
-import { useState } from "react";
 import { useRouter } from "next/navigation";
 import { deleteStore } from "@/lib/client/repo";
 import { findBagsStillInStore, type BagPlace } from "@/lib/domain/store-rules";
 import { formatBagCode } from "@/lib/domain";
 import type { Store } from "@/lib/schemas/store";
 import { Button } from "@/components/ui/Button";
-import { ConfirmPanel } from "@/components/ui/ConfirmPanel";
+import { ConfirmPanel, useConfirmedAction } from "@/components/ui/ConfirmPanel";
 import { describeSaveError } from "@/components/bags/save-error";
 import { Notice } from "@/components/season/Notice";
 import { describeStoreDelete, explainStoreRefusal } from "./store-delete";
@@ -16,27 +15,13 @@ import { describeStoreDelete, explainStoreRefusal } from "./store-delete";
 /** Delete a cold store: refused while bags are still in it (each one linked, to move it), else confirmed first. */
 export function StoreDelete({ store, bagsOfStore, readingCount }: { store: Store; bagsOfStore: readonly (BagPlace & { id: string })[]; readingCount: number }) {
   const router = useRouter();
-  const [open, setOpen] = useState(false);
-  const [busy, setBusy] = useState(false);
-  const [error, setError] = useState<string | null>(null);
+  const del = useConfirmedAction(() => deleteStore(store.id), () => router.replace("/stores"), describeSaveError);
   const refusal = explainStoreRefusal(store, bagsOfStore);
   const held = findBagsStillInStore(bagsOfStore);
 
-  async function remove() {
-    setBusy(true);
-    setError(null);
-    try {
-      await deleteStore(store.id);
-      router.replace("/stores");
-    } catch (e) {
-      setError(describeSaveError(e));
-      setBusy(false);
-    }
-  }
-
-  if (!open) {
+  if (!del.open) {
     return (
-      <Button tone="quiet" className="w-full text-ember-700" onClick={() => setOpen(true)}>
+      <Button tone="quiet" className="w-full" onClick={del.show}>
         Delete this store…
       </Button>
     );
@@ -63,7 +48,7 @@ export function StoreDelete({ store, bagsOfStore, readingCount }: { store: Store
             </li>
           ))}
         </ul>
-        <Button tone="quiet" className="w-full" onClick={() => setOpen(false)}>
+        <Button tone="quiet" className="w-full" onClick={del.cancel}>
           Close
         </Button>
       </section>
@@ -73,19 +58,16 @@ export function StoreDelete({ store, bagsOfStore, readingCount }: { store: Store
     <div className="space-y-2">
       <ConfirmPanel
         title={`Delete ${store.name}?`}
-        confirmLabel={busy ? "Deleting…" : `Yes, delete ${store.name}`}
-        busy={busy}
-        onConfirm={() => void remove()}
-        onCancel={() => {
-          setOpen(false);
-          setError(null);
-        }}
+        confirmLabel={del.busy ? "Deleting…" : `Yes, delete ${store.name}`}
+        busy={del.busy}
+        onConfirm={del.run}
+        onCancel={del.cancel}
       >
         {describeStoreDelete(readingCount).map((line) => (
           <p key={line}>{line}</p>
         ))}
       </ConfirmPanel>
-      <Notice>{error}</Notice>
+      <Notice>{del.error}</Notice>
     </div>
   );
 }

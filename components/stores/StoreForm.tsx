@@ -6,12 +6,11 @@ import { z } from "zod";
 import { StoreInput, type Store } from "@/lib/schemas/store";
 import { storeKinds, vocabularyLabels } from "@/lib/schemas/vocabulary";
 import { createStore, updateStore } from "@/lib/client/repo";
-import { Button } from "@/components/ui/Button";
 import { Caution, cautionTexts } from "@/components/ui/Caution";
 import { Field, Input, Select, TextArea } from "@/components/ui/Field";
 import { describeSaveError } from "@/components/bags/save-error";
 import { useState } from "react";
-import { Notice } from "@/components/season/Notice";
+import { FormActions } from "@/components/ui/FormActions";
 
 // Boxes are typed one per line; the shared schema still checks each one.
 const StoreFormSchema = StoreInput.omit({ id: true, boxes: true }).extend({ boxesText: z.string().max(6000) });
@@ -88,15 +87,7 @@ export function StoreForm({ store, onDone }: { store?: Store; onDone: (id: strin
       <Field label="Notes" htmlFor={`store-notes-${id}`} error={errors.notes?.message}>
         <TextArea id={`store-notes-${id}`} rows={2} {...register("notes")} />
       </Field>
-      <Notice>{saveError}</Notice>
-      <div className="flex gap-3">
-        <Button type="submit" disabled={isSubmitting} className="flex-1">
-          {store ? "Save changes" : "Add cold store"}
-        </Button>
-        <Button tone="quiet" onClick={() => onDone(null)}>
-          Cancel
-        </Button>
-      </div>
+      <FormActions error={saveError} submitLabel={store ? "Save changes" : "Add cold store"} busy={isSubmitting} onCancel={() => onDone(null)} />
     </form>
   );
 }

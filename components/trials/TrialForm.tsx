@@ -10,7 +10,7 @@ import { createTrial, updateTrial } from "@/lib/client/repo";
 import { Button } from "@/components/ui/Button";
 import { Field, Input, Select, TextArea } from "@/components/ui/Field";
 import { describeSaveError } from "@/components/bags/save-error";
-import { Notice } from "@/components/season/Notice";
+import { FormActions } from "@/components/ui/FormActions";
 import { pickChangedFields } from "./trial-manage";
 
 // The shared trial schema without ids (the phone makes them); arms as label + treatment.
@@ -58,13 +58,7 @@ export function NewTrialForm({ lots, onDone }: { lots: readonly Lot[]; onDone: (
       <Field label="Seed lot" htmlFor="trial-lot" hint="Compare treatments on one lot, so the seed itself is not the difference.">
         <Select id="trial-lot" {...register("lot_id", { setValueAs: (v) => v || null })}>
           <option value="">Choose a lot</option>
-          {lots.map((l) => (
-            <option key={l.id} value={l.id}>
-              {l.species}
-              {l.source ? ` · ${l.source}` : ""}
-              {l.year ? ` ${l.year}` : ""}
-            </option>
-          ))}
+          <LotOptions lots={lots} />
         </Select>
       </Field>
       <Field label="Question" htmlFor="trial-question" error={errors.question?.message}>
@@ -98,15 +92,7 @@ export function NewTrialForm({ lots, onDone }: { lots: readonly Lot[]; onDone: (
           </Button>
         ) : null}
       </fieldset>
-      <Notice>{saveError}</Notice>
-      <div className="flex gap-3">
-        <Button type="submit" className="flex-1" disabled={isSubmitting}>
-          Create trial
-        </Button>
-        <Button tone="quiet" onClick={() => onDone(null)}>
-          Cancel
-        </Button>
-      </div>
+      <FormActions error={saveError} submitLabel="Create trial" busy={isSubmitting} onCancel={() => onDone(null)} />
     </form>
   );
 }
@@ -146,13 +132,7 @@ export function EditTrialForm({ trial, lots, onDone }: { trial: Trial; lots: rea
       <Field label="Seed lot" htmlFor="edit-trial-lot" hint="The trial lists this lot's bags. Bags already in an arm stay in it.">
         <Select id="edit-trial-lot" {...register("lot_id", { setValueAs: (v) => v || null })}>
           <option value="">No lot</option>
-          {lots.map((l) => (
-            <option key={l.id} value={l.id}>
-              {l.species}
-              {l.source ? ` · ${l.source}` : ""}
-              {l.year ? ` ${l.year}` : ""}
-            </option>
-          ))}
+          <LotOptions lots={lots} />
         </Select>
       </Field>
       <Field label="Question" htmlFor="edit-trial-question" error={errors.question?.message}>
@@ -161,15 +141,17 @@ export function EditTrialForm({ trial, lots, onDone }: { trial: Trial; lots: rea
       <Field label="Notes" htmlFor="edit-trial-notes" hint="What you did differently, what you saw, what to try next." error={errors.notes?.message}>
         <TextArea id="edit-trial-notes" rows={3} aria-invalid={!!errors.notes} aria-describedby={errors.notes ? "edit-trial-notes-error" : undefined} {...register("notes", { setValueAs: (v) => v || null })} />
       </Field>
-      <Notice>{saveError}</Notice>
-      <div className="flex gap-3">
-        <Button type="submit" className="flex-1" disabled={isSubmitting}>
-          Save changes
-        </Button>
-        <Button tone="quiet" onClick={() => onDone(false)}>
-          Cancel
-        </Button>
-      </div>
+      <FormActions error={saveError} submitLabel="Save changes" busy={isSubmitting} onCancel={() => onDone(false)} />
     </form>
   );
+}
+
+function LotOptions({ lots }: { lots: readonly Lot[] }) {
+  return lots.map((l) => (
+    <option key={l.id} value={l.id}>
+      {l.species}
+      {l.source ? ` · ${l.source}` : ""}
+      {l.year ? ` ${l.year}` : ""}
+    </option>
+  ));
 }

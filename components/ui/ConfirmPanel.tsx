@@ -1,6 +1,6 @@
 "use client";
 
-import { useEffect, useId, useRef } from "react";
+import { useEffect, useId, useRef, useState } from "react";
 import { Button } from "./Button";
 
 /**
@@ -48,4 +48,36 @@ export function ConfirmPanel({
       </div>
     </section>
   );
+}
+
+/**
+ * State for an action behind a confirmation: open/close, busy while it runs, and its failure in words
+ * (`describe` turns the error into a sentence; on success `after` runs, e.g. leaving the page).
+ */
+export function useConfirmedAction(action: () => Promise<unknown>, after: () => void, describe: (e: unknown) => string) {
+  const [open, setOpen] = useState(false);
+  const [busy, setBusy] = useState(false);
+  const [error, setError] = useState<string | null>(null);
+  async function run() {
+    setBusy(true);
+    setError(null);
+    try {
+      await action();
+      after();
+    } catch (e) {
+      setError(describe(e));
+      setBusy(false);
+    }
+  }
+  return {
+    open,
+    busy,
+    error,
+    show: () => setOpen(true),
+    cancel: () => {
+      setOpen(false);
+      setError(null);
+    },
+    run: () => void run(),
+  };
 }
