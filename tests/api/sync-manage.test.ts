@@ -5,7 +5,7 @@ import { memberRequest, signedInMember, type TestMember } from "../support/auth"
 import { openPhone, uuid } from "../support/sync";
 import { POST as push } from "@/app/api/sync/push/route";
 import { GET as pull } from "@/app/api/sync/pull/route";
-import { createStore, createTrial, deleteStore, deleteTrial } from "@/lib/client/repo";
+import { createBag, createStore, createTrial, deleteStore, deleteTrial } from "@/lib/client/repo";
 import type { MutationName } from "@/lib/schemas/mutations";
 
 // Managing cold stores and trials, and the count rule, through /api/sync/push on a fresh SQLite file:
@@ -210,5 +210,27 @@ describe("cold stores, trials and counts through the push route", () => {
     expect(await phone.db.trials.get(trial.id)).toBeUndefined();
     expect(await phone.db.trial_arms.where("trial_id").equals(trial.id).count()).toBe(0);
     expect((await phone.db.outbox.toArray()).at(-1)).toMatchObject({ name: "trial.delete", args: { id: trial.id }, status: "pending" });
+  });
+  it("two phones: a store deleted on a phone that has not seen a bag put in it is refused by the server and comes back", async () => {
+    const phoneA = await openPhone(grower);
+    phoneA.use();
+    const store = await createStore({ name: "Cellar fridge", kind: "fridge" });
+    await phoneA.engine.syncNow();
+    const phoneB = await openPhone(grower);
+    await phoneB.engine.syncNow();
+    phoneB.use();
+    await createBag({ code: "G7H8J9K", lot_id: lotId, store_id: store.id, start_date: "2026-11-18" });
+    await phoneB.engine.syncNow();
+
+    // Phone A has not pulled the bag: its own check lets the delete through, the server's does not.
+    phoneA.use();
+    await deleteStore(store.id);
+    expect(await phoneA.db.stores.get(store.id)).toBeUndefined();
+    await phoneA.engine.syncNow();
+    await phoneA.engine.syncNow();
+    const [entry] = await phoneA.db.outbox.where("status").equals("rejected").toArray();
+    expect(entry).toMatchObject({ name: "store.delete", error: { code: "domain", message: expect.stringMatching(/^Cellar fridge still holds 1 bag .*G7H-8J9K/) } });
+    expect(await phoneA.db.stores.get(store.id)).toMatchObject({ name: "Cellar fridge", deleted_at: null });
+    expect((await db("stores").where({ id: store.id }).first("deleted_at")).deleted_at).toBeNull();
   });
 });
