@@ -211,6 +211,7 @@ describe("cold stores, trials and counts through the push route", () => {
     expect(await phone.db.trial_arms.where("trial_id").equals(trial.id).count()).toBe(0);
     expect((await phone.db.outbox.toArray()).at(-1)).toMatchObject({ name: "trial.delete", args: { id: trial.id }, status: "pending" });
   });
+
   it("two phones: a store deleted on a phone that has not seen a bag put in it is refused by the server and comes back", async () => {
     const phoneA = await openPhone(grower);
     phoneA.use();
