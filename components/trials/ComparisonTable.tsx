@@ -1,5 +1,6 @@
 "use client";
 
+import { useMemo } from "react";
 import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
 import type { ArmComparison, ArmResult, TrialTable } from "./trial-table";
 
@@ -54,11 +55,17 @@ const columns = [
 
 /** Each arm with its Wilson interval; the best arm against every other: Newcombe interval and Fisher's exact p. */
 export function ComparisonTable({ table }: { table: TrialTable }) {
-  const data: Row[] = table.arms.map((arm) => ({
-    arm,
-    vsBest: table.comparisons.find((c) => c.armId === arm.arm.id) ?? null,
-    isBest: table.best?.arm.id === arm.arm.id && table.comparisons.length > 0,
-  }));
+  // The table's data must keep its identity between renders: a fresh array each render makes the table reset its
+  // page on every render, which renders again, and the screen locks up at the first tap.
+  const data: Row[] = useMemo(
+    () =>
+      table.arms.map((arm) => ({
+        arm,
+        vsBest: table.comparisons.find((c) => c.armId === arm.arm.id) ?? null,
+        isBest: table.best?.arm.id === arm.arm.id && table.comparisons.length > 0,
+      })),
+    [table],
+  );
   const t = useReactTable({ data, columns, getCoreRowModel: getCoreRowModel() });
   return (
     <>

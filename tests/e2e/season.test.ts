@@ -117,8 +117,8 @@ describe("season screens on a phone", () => {
     const [trial] = q<{ id: string }>("SELECT id FROM trials");
     await page.goto(`/trials/view?id=${trial.id}`);
     await page.getByText("unlikely to be chance").waitFor();
-    await page.getByRole("button", { name: "Prepare the protocol" }).dispatchEvent("click");
-    await page.getByRole("button", { name: "Save as our protocol" }).dispatchEvent("click");
+    await page.getByRole("button", { name: "Prepare the protocol" }).click();
+    await page.getByRole("button", { name: "Save as our protocol" }).click();
     await page.getByText("Saved as the farm's own protocol").waitFor();
     const rows = await waitForRows<{ is_farm_own: number; phases: string }>(
       app.databaseFile, "SELECT is_farm_own, phases FROM protocols WHERE source_trial_id = ?", [trial.id], (r) => r.length === 1,
