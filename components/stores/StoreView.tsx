@@ -16,7 +16,6 @@ import { StateBadge } from "@/components/ui/StateBadge";
 import { useMember } from "@/components/season/use-member";
 import { useToday } from "@/components/bags/use-farm-rows";
 import { formatShortDay as formatDay, formatStamp } from "@/components/bags/format-day";
-import { readProtocolRow } from "@/lib/domain/rows/protocol-row";
 import { buildChartPoints, describeBand, measureBagCold, measureStore } from "./store-metrics";
 import { ReadingsChart } from "./ReadingsChart";
 import { ReadingEntry } from "./ReadingForm";
@@ -53,7 +52,6 @@ export function StoreView() {
     return { store, readings, bags, bagsOfStore, lots: lots.filter((l) => !!l), protocols: protocols.filter((p) => !!p) } as const;
   }, [id]);
 
-  const nowIso = useMemo(() => new Date().toISOString(), []);
   const sinceMs = useMemo(() => {
     const days = ranges.find((r) => r.key === range)?.days ?? null;
     return days === null ? null : Date.now() - days * 86_400_000;
@@ -71,9 +69,8 @@ export function StoreView() {
     .map((bag) => {
       const lot = lots.find((l) => l.id === bag.lot_id) ?? null;
       const protocolRow = protocols.find((p) => p.id === bag.protocol_id) ?? null;
-      const protocol = protocolRow ? readProtocolRow(protocolRow) : null;
-      const cold = measureBagCold(bag, protocol, readings, nowIso);
-      const state = determineBagState({ startedOn: bag.start_date, pulledOn: bag.pulled_on, sownOn: bag.sown_on, discardedOn: bag.discarded_on }, cold.shifted ?? cold.window, today);
+      const cold = measureBagCold(bag, protocolRow, readings, store.kind, today);
+      const state = determineBagState({ startedOn: bag.start_date, pulledOn: bag.pulled_on, sownOn: bag.sown_on, discardedOn: bag.discarded_on }, cold.shifted, today);
       return { bag, lot, cold, state };
     })
     .sort((a, b) => (a.bag.box ?? "").localeCompare(b.bag.box ?? "") || a.bag.code.localeCompare(b.bag.code));
@@ -192,11 +189,10 @@ export function StoreView() {
               {cold.exposure ? (
                 <p className="text-label text-ink-soft">
                   {cold.exposure.effectiveColdDays.toFixed(1)} cold days of {cold.exposure.calendarDays.toFixed(1)}
-                  {cold.exposure.lostDays ? ` · ${cold.exposure.lostDays} day${cold.exposure.lostDays === 1 ? "" : "s"} lost` : " · none lost"}
+                  {cold.lostDays ? ` · ${cold.lostDays} day${cold.lostDays === 1 ? "" : "s"} lost` : " · none lost"}
                 </p>
-              ) : (
-                <p className="text-label text-ink-soft">{cold.problem}</p>
-              )}
+              ) : null}
+              {cold.shifted || !cold.exposure ? <p className="text-label text-ink-soft">{cold.reason}</p> : null}
               {cold.window && cold.shifted ? (
                 <p className="text-label text-ink">
                   Pull window {formatDay(cold.shifted.opensOn)}

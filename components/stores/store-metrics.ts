@@ -1,20 +1,21 @@
 import { AppError } from "@/lib/errors";
 import {
-  computePullWindow,
   convertFromCelsius,
   defaultEffectiveBand,
   findOptimumBand,
   measureColdExposure,
-  shiftPullWindow,
+  prepareStoreReadings,
   type ColdExposure,
+  type IsoDay,
   type PullWindow,
   type TemperatureReading,
   type TemperatureUnit,
 } from "@/lib/domain";
-import type { ProtocolForPlan } from "@/lib/domain/schedule";
+import { findEffectiveBagWindow, type BagForWindow } from "@/lib/domain/rows/bag-rows";
+import type { ProtocolRow } from "@/lib/client/db";
+import type { StoreKind } from "@/lib/schemas/vocabulary";
 import type { TemperatureBand } from "@/lib/schemas/protocol";
 import type { Reading } from "@/lib/schemas/reading";
-import type { Bag } from "@/lib/schemas/bag";
 
 // Pure wiring from a store's reading rows to lib/domain's cold exposure, for the store page and its chart.
 
@@ -58,40 +59,36 @@ export function measureStore(readings: readonly ReadingRow[], sinceMs: number | 
 }
 
 export interface BagCold {
+  /** Hours in and out of the band over the bag's time in the cold; only a fridge is held to a band. */
   exposure: ColdExposure | null;
+  /** The planned window, and the one every screen uses (moved later by cold lost), from lib/domain. */
   window: PullWindow | null;
   shifted: PullWindow | null;
-  problem: string | null;
-}
-
-/** Local midnight of a day as a timestamp the domain accepts. */
-function startOfDay(day: string): string {
-  return new Date(`${day}T00:00:00`).toISOString();
+  lostDays: number;
+  /** Plain words on why the window is where it is, or why nothing was measured. */
+  reason: string;
 }
 
 /**
- * Effective cold days of a bag in this store (start to pull, or to now) within its protocol's band, and its pull
- * window moved later by the days it lost its cold.
+ * A bag's cold in this store: its effective window (the same lib/domain function Today, the bags table, labels and
+ * the digest use, so this page never disagrees with them) and, in a fridge, the hours behind it.
  */
 export function measureBagCold(
-  bag: Pick<Bag, "start_date" | "pulled_on" | "discarded_on">,
-  protocol: ProtocolForPlan | null,
+  bag: BagForWindow,
+  protocol: ProtocolRow | null,
   readings: readonly ReadingRow[],
-  nowIso: string,
+  storeKind: StoreKind,
+  today: IsoDay,
 ): BagCold {
-  if (!bag.start_date) return { exposure: null, window: null, shifted: null, problem: "Not started yet." };
-  try {
-    const band = protocol?.effectiveBand ?? defaultEffectiveBand;
-    const endDay = bag.pulled_on ?? bag.discarded_on;
-    const to = endDay ? startOfDay(endDay) : nowIso;
-    const from = startOfDay(bag.start_date);
-    if (Date.parse(to) <= Date.parse(from)) return { exposure: null, window: null, shifted: null, problem: "Started today: nothing to measure yet." };
-    const exposure = measureColdExposure(toTemperatureReadings(readings), { band, from, to });
-    const window = protocol ? computePullWindow(protocol, bag.start_date) : null;
-    const shifted = window ? shiftPullWindow(window, exposure.lostDays) : null;
-    return { exposure, window, shifted, problem: null };
-  } catch (e) {
-    if (e instanceof AppError) return { exposure: null, window: null, shifted: null, problem: e.message };
-    throw e;
+  const temperatureReadings = toTemperatureReadings(readings);
+  const effective = findEffectiveBagWindow(bag, protocol, prepareStoreReadings(temperatureReadings), today, { storeKind });
+  let exposure: ColdExposure | null = null;
+  if (effective.span && storeKind === "fridge" && effective.span.to > effective.span.from) {
+    try {
+      exposure = measureColdExposure(temperatureReadings, { band: effective.band, from: new Date(effective.span.from).toISOString(), to: new Date(effective.span.to).toISOString() });
+    } catch (e) {
+      if (!(e instanceof AppError)) throw e;
+    }
   }
+  return { exposure, window: effective.planned, shifted: effective.window, lostDays: effective.lostDays, reason: effective.reason };
 }

@@ -3,10 +3,11 @@
 import Link from "next/link";
 import { useMemo, useState } from "react";
 import { useSearchParams } from "next/navigation";
+import Dexie from "dexie";
 import { useLiveQuery } from "dexie-react-hooks";
 import { getLocalDb } from "@/lib/client/db";
 import { saveProtocol, updateBag } from "@/lib/client/repo";
-import { describeReconciledPhase, determineBagState, formatBagCode, reconcileProtocol } from "@/lib/domain";
+import { addDaysToIsoDay, describeReconciledPhase, determineBagState, formatBagCode, reconcileProtocol } from "@/lib/domain";
 import { vocabularyLabels, type StoreKind } from "@/lib/schemas/vocabulary";
 import type { MutationArgs } from "@/lib/schemas/mutations";
 import { Button } from "@/components/ui/Button";
@@ -14,7 +15,7 @@ import { Card, PageHeader } from "@/components/ui/Card";
 import { StateBadge } from "@/components/ui/StateBadge";
 import { describeSaveError } from "@/components/bags/save-error";
 import { pickProtocolForLot } from "@/components/bags/new-bag-defaults";
-import { findBagWindow } from "@/lib/domain/rows/bag-rows";
+import { findEffectiveBagWindow, prepareReadingsByStore } from "@/lib/domain/rows/bag-rows";
 import { useToday } from "@/components/bags/use-farm-rows";
 import { useMember } from "@/components/season/use-member";
 import { assembleTrialTable, buildTrialProtocol } from "./trial-table";
@@ -50,7 +51,17 @@ export function TrialView() {
     const sowings = await db.sowings.where("bag_id").anyOf(bags.map((b) => b.id)).toArray();
     const counts = await db.counts.where("sowing_id").anyOf(sowings.map((s) => s.id)).toArray();
     const [protocols, stores, lots] = await Promise.all([db.protocols.toArray(), db.stores.toArray(), db.lots.toArray()]);
-    return { trial, arms, lot, bags, sowings, counts, protocols: protocols.filter((p) => !p.deleted_at), stores, lots: lots.filter((l) => !l.deleted_at) } as const;
+    // The fridges' readings since the earliest of these bags went in: they move windows, as on every other screen.
+    const inCold = bags.filter((b) => b.start_date && !b.pulled_on && !b.sown_on && !b.discarded_on && b.store_id);
+    const readings = (
+      await Promise.all(
+        [...new Set(inCold.map((b) => b.store_id!))].map((storeId) => {
+          const from = inCold.filter((b) => b.store_id === storeId).reduce((min, b) => (b.start_date! < min ? b.start_date! : min), "9999-12-31");
+          return db.readings.where("[store_id+taken_at]").between([storeId, addDaysToIsoDay(from, -2)], [storeId, Dexie.maxKey]).toArray();
+        }),
+      )
+    ).flat();
+    return { trial, arms, lot, bags, sowings, counts, protocols: protocols.filter((p) => !p.deleted_at), stores, lots: lots.filter((l) => !l.deleted_at), readingsByStore: prepareReadingsByStore(readings) } as const;
   }, [id]);
 
   const table = useMemo(() => (data?.trial ? assembleTrialTable({ arms: data.arms, bags: data.bags, sowings: data.sowings, counts: data.counts }) : null), [data]);
@@ -58,7 +69,7 @@ export function TrialView() {
   if (!id) return <Missing text="No trial was chosen." />;
   if (data === undefined) return <p className="p-4 text-ink-soft">Opening the trial on this phone…</p>;
   if (!data.trial || !table) return <Missing text="This trial is not on this phone. It may not have synced yet." />;
-  const { trial, arms, lot, bags, protocols, stores, lots } = data;
+  const { trial, arms, lot, bags, protocols, stores, lots, readingsByStore } = data;
   const ownProtocol = protocols.find((p) => p.source_trial_id === trial.id) ?? null;
   const winner = table.winner;
   const canAssign = can("bag.update");
@@ -209,7 +220,8 @@ export function TrialView() {
         <p className="text-label text-ink-soft">{lot ? `Bags of this lot; put each in the arm it is treated by.` : "Choose a lot for the trial to list its bags."}</p>
         <ul className="divide-y divide-rime-100">
           {bags.map((b) => {
-            const window = findBagWindow(b, protocols.find((p) => p.id === b.protocol_id) ?? null);
+            const storeKind = stores.find((st) => st.id === b.store_id)?.kind ?? null;
+            const { window } = findEffectiveBagWindow(b, protocols.find((p) => p.id === b.protocol_id) ?? null, b.store_id ? readingsByStore.get(b.store_id) : null, today, { storeKind });
             const state = determineBagState({ startedOn: b.start_date, pulledOn: b.pulled_on, sownOn: b.sown_on, discardedOn: b.discarded_on }, window, today);
             return (
               <li key={b.id} className="flex items-center gap-3 py-2">

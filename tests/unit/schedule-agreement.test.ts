@@ -8,6 +8,7 @@ import { describeSheet } from "@/components/check/sheet-view";
 import { allGoodDraft, previewCheck } from "@/components/check/check-draft";
 import { buildLabels } from "@/components/labels/label-data";
 import { formatShortDay } from "@/components/bags/format-day";
+import { measureBagCold } from "@/components/stores/store-metrics";
 import type { Bag } from "@/lib/schemas/bag";
 import type { Lot } from "@/lib/schemas/lot";
 import type { Store } from "@/lib/schemas/store";
@@ -70,6 +71,14 @@ describe("a bag whose window moved reads the same everywhere", () => {
     expect(matchesWindowFilter(warm, "opens_this_week", today)).toBe(true);
     // The same bag in a fridge that held its band: the planned window, open since 15 Jan.
     expect(cool).toMatchObject({ state: "window_open", lostColdDays: 0, windowBasis: "kept_cold", window: { opensOn: "2026-01-15" } });
+  });
+
+  it("store page: the same moved window and the same two days lost, beside the fridge's hours", () => {
+    const cold = measureBagCold(bags[0], protocol, readingsOf("s-barn", true), "fridge", today);
+    expect(cold.shifted).toEqual(warm.window);
+    expect(cold.window).toEqual(warm.plannedWindow);
+    expect(cold.lostDays).toBe(warm.lostColdDays);
+    expect(cold.exposure?.lostDays).toBe(2);
   });
 
   it("Today's round: the moved bag is not due before its window opens, and opens on 17 Jan", () => {

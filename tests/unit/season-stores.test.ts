@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { buildChartPoints, describeBand, measureBagCold } from "@/components/stores/store-metrics";
 import type { ProtocolForPlan } from "@/lib/domain/schedule";
+import type { ProtocolRow } from "@/lib/client/db";
 
 const cold30: ProtocolForPlan = {
   species: "Hypericum perforatum",
@@ -19,25 +20,39 @@ function readings(fromDay: string, days: number, c: number, warm?: { fromH: numb
   return out;
 }
 
-describe("measureBagCold: effective cold days and the shifted window", () => {
+const sync = { farm_id: "f", created_at: "2025-12-01T00:00:00Z", updated_at: "2025-12-01T00:00:00Z", seq: 1, deleted_at: null };
+const cold30Row: ProtocolRow = {
+  ...sync, id: "p-30", species: cold30.species, common_name: null, phases: cold30.phases as ProtocolRow["phases"], effective_band: null,
+  no_cold_reason: null, toxic_seed: null, medicinal: false, is_farm_own: true, starter_key: null, source_trial_id: null, note: null,
+};
+const pulledBag = { start_date: "2026-01-01", pulled_on: "2026-01-31", sown_on: null, discarded_on: null, window_start: null, window_end: null, store_id: "s" };
+
+describe("measureBagCold: effective cold days and the shifted window, as every other screen shows them", () => {
   it.each([
-    { name: "a steady 4 °C fridge (FDA: at or below 4 °C) loses nothing", warm: undefined, lost: 0, opens: "2026-01-31" },
+    { name: "a steady 4 °C fridge (FDA: at or below 4 °C) loses nothing", kind: "fridge" as const, warm: undefined, lost: 0, opens: "2026-01-31" },
     // 48 h at 12 °C is above the default 0–10 °C band: two days lost, the window moves two days later.
-    { name: "two days at 12 °C move the window by two days", warm: { fromH: 240, toH: 288, c: 12 }, lost: 2, opens: "2026-02-02" },
-    { name: "three days frozen at −18 °C (a freezer is another treatment) move it by three", warm: { fromH: 240, toH: 312, c: -18 }, lost: 3, opens: "2026-02-03" },
-  ])("$name", ({ warm, lost, opens }) => {
-    const r = measureBagCold({ start_date: "2026-01-01", pulled_on: "2026-01-31", discarded_on: null }, cold30, readings("2025-12-31", 40, 4, warm), "2026-02-15T00:00:00Z");
-    expect(r.problem).toBeNull();
+    { name: "two days at 12 °C in a fridge move the window by two days", kind: "fridge" as const, warm: { fromH: 240, toH: 288, c: 12 }, lost: 2, opens: "2026-02-02" },
+    { name: "three days frozen at −18 °C in a fridge (below the band) move it by three", kind: "fridge" as const, warm: { fromH: 240, toH: 312, c: -18 }, lost: 3, opens: "2026-02-03" },
+    // In a freezer, freezing is the treatment: the window stays as planned and no band hours are claimed.
+    { name: "the same −18 °C in a freezer moves nothing", kind: "freezer" as const, warm: { fromH: 240, toH: 312, c: -18 }, lost: 0, opens: "2026-01-31" },
+  ])("$name", ({ kind, warm, lost, opens }) => {
+    const r = measureBagCold(pulledBag, cold30Row, readings("2025-12-31", 40, 4, warm), kind, "2026-02-15");
     expect(r.window?.opensOn).toBe("2026-01-31"); // 2026-01-01 + 30 calendar days
-    expect(r.exposure?.lostDays).toBe(lost);
+    expect(r.lostDays).toBe(lost);
     expect(r.shifted?.opensOn).toBe(opens);
-    if (warm) expect(r.exposure?.excursions).toHaveLength(1);
+    if (kind === "fridge") {
+      expect(r.exposure?.lostDays).toBe(lost);
+      if (warm) expect(r.exposure?.excursions).toHaveLength(1);
+    } else {
+      expect(r.exposure).toBeNull();
+      expect(r.reason).toMatch(/freezer/i);
+    }
   });
 
-  it.each([
-    { name: "not started", bag: { start_date: null, pulled_on: null, discarded_on: null }, problem: "Not started" },
-  ])("$name", ({ bag, problem }) => {
-    expect(measureBagCold(bag, cold30, [], "2026-02-15T00:00:00Z").problem).toContain(problem);
+  it("a bag not started yet has nothing measured and says so", () => {
+    const r = measureBagCold({ ...pulledBag, start_date: null, pulled_on: null }, cold30Row, [], "fridge", "2026-02-15");
+    expect(r.exposure).toBeNull();
+    expect(r.reason).not.toBe("");
   });
 });
 
