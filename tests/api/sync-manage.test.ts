@@ -169,11 +169,12 @@ describe("cold stores, trials and counts through the push route", () => {
 
     // Day numbers are days after sowing (1 Nov).
     it.each([
-      ["falls below the day before", "2026-11-10", 8, /went down from 9 on day 7 to 8 on day 9/],
-      ["falls below the latest count, sent late from an offline phone", "2026-11-14", 11, /went down from 12 on day 11 to 11 on day 13/],
-      ["is higher than a later day's count", "2026-11-06", 10, /went down from 10 on day 5 to 9 on day 7/],
-      ["passes the seeds sown", "2026-11-15", 21, /More seeds germinated \(21\) than were sown \(20\)/],
-      ["is on the sowing day", "2026-11-01", 0, /must be after it/],
+      // The phone's own words (lib/domain judgeCountEntry), so a refusal reads the same wherever it shows.
+      ["falls below the day before", "2026-11-10", 8, /^9 were already up on 8 Nov 2026\. The count is a running total/],
+      ["falls below the latest count, sent late from an offline phone", "2026-11-14", 11, /^12 were already up on 12 Nov 2026\./],
+      ["is higher than a later day's count", "2026-11-06", 10, /^A later count \(8 Nov 2026\) had only 9/],
+      ["passes the seeds sown", "2026-11-15", 21, /^Only 20 seeds were sown, so at most 20 can be up\./],
+      ["is on the sowing day", "2026-11-01", 0, /^Counts start the day after sowing \(sown 1 Nov 2026\)\./],
     ])("is refused by the server when it %s", async (_what, countedOn, total, message) => {
       const m = mutation("count.record", { id: uuid(), sowing_id: sowingId, counted_on: countedOn, germinated_total: total });
       const r = await pushAs(helper, [m]);

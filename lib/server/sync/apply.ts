@@ -4,8 +4,7 @@ import type { Knex } from "knex";
 import { ZodError } from "zod";
 import { AppError, notFound } from "@/lib/errors";
 import { canRun, mutationTable, type Mutation, type MutationArgs, type MutationName, type PushRequest } from "@/lib/schemas/mutations";
-import { computeGerminationPercent, convertToPerInterval } from "@/lib/domain/germination";
-import { countDaysBetween } from "@/lib/domain/dates";
+import { judgeCountEntry, pickDailyTotals } from "@/lib/domain/count-rules";
 import { assertStoreCanBeDeleted } from "@/lib/domain/store-rules";
 import { effectsOf, rowReferences, sameValue, type Effect, type EffectTable, type RowValues } from "@/lib/schemas/mutation-effects";
 import type { ProtocolPhase } from "@/lib/schemas/protocol";
@@ -128,27 +127,22 @@ const guards: { [N in MutationName]?: (ctx: Ctx, args: MutationArgs<N>) => Promi
 
 /**
  * A running total may not fall below the sowing's nearest earlier count, rise above a later one, nor pass the
- * seeds sown (an offline phone may not have seen another phone's counts). A recount of the same day replaces it.
+ * seeds sown (an offline phone may not have seen another phone's counts): the phone's own rule, judgeCountEntry.
+ * A recount of the same day replaces it.
  */
 async function checkCountRises(ctx: Ctx, count: MutationArgs<"count.record">): Promise<void> {
   if (await ctx.trx("counts").where({ id: count.id }).first("id")) return; // the same count sent again: the first is kept
   const sowing = await ctx.trx("sowings").where({ id: count.sowing_id, farm_id: ctx.member.farmId }).first("sown_on", "seeds_sown");
   if (!sowing) return; // the insert reports the missing sowing
-  const nearest = (side: "<" | ">") =>
-    ctx.trx("counts")
-      .where({ sowing_id: count.sowing_id })
-      .whereNull("deleted_at")
-      .where("counted_on", side, count.counted_on)
-      .orderBy([{ column: "counted_on", order: side === "<" ? "desc" : "asc" }, { column: "created_at", order: "desc" }])
-      .first("counted_on", "germinated_total");
-  const before = await nearest("<");
-  const after = await nearest(">");
-  const day = (on: string) => countDaysBetween(sowing.sown_on, on);
-  // Neighbours on the sowing day itself are left out, as on the phone; the new count must be after sowing.
-  const neighbours = [before, after].filter((c): c is { counted_on: string; germinated_total: number } => !!c && day(c.counted_on) > 0);
-  const series = [...neighbours, count].map((c) => ({ day: day(c.counted_on), count: c.germinated_total }));
-  convertToPerInterval(series, "cumulative");
-  computeGerminationPercent(count.germinated_total, sowing.seeds_sown);
+  const counts = await ctx.trx("counts").where({ sowing_id: count.sowing_id }).whereNull("deleted_at").select("counted_on", "germinated_total", "created_at");
+  const verdict = judgeCountEntry({
+    sownOn: sowing.sown_on,
+    seedsSown: sowing.seeds_sown,
+    countedOn: count.counted_on,
+    total: count.germinated_total,
+    totals: pickDailyTotals(counts),
+  });
+  if (!verdict.ok) throw new AppError("domain", verdict.message);
 }
 
 /** The row must be this farm's: a row of another farm is reported as missing, never as someone else's. */
