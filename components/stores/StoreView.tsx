@@ -192,7 +192,8 @@ export function StoreView() {
                   {cold.lostDays ? ` · ${cold.lostDays} day${cold.lostDays === 1 ? "" : "s"} lost` : " · none lost"}
                 </p>
               ) : null}
-              {cold.shifted || !cold.exposure ? <p className="text-label text-ink-soft">{cold.reason}</p> : null}
+              {/* Why the window moved, or why nothing was measured; a fridge that held its band needs no words. */}
+              {cold.lostDays > 0 || !cold.exposure ? <p className="text-label text-ink-soft">{cold.reason}</p> : null}
               {cold.window && cold.shifted ? (
                 <p className="text-label text-ink">
                   Pull window {formatDay(cold.shifted.opensOn)}
