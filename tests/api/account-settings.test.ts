@@ -69,7 +69,11 @@ describe("change password while signed in", () => {
     expect(body).toMatchObject({ ok: true, ended: 2 });
     expect(body.message).toBe("Password changed. You were signed out on 2 other phones or computers. This phone stays signed in.");
 
-    expect(await status(m.cookie)).toBe(200);
+    // This phone goes on with the fresh session the answer set; the old session's token ends with the old password.
+    const fresh = /rimebook[^=]*=([^;]+)/.exec(res.headers.get("set-cookie") ?? "");
+    expect(fresh).not.toBeNull();
+    expect(await status(`${m.cookie.split("=")[0]}=${fresh![1]}`)).toBe(200);
+    expect(await status(m.cookie)).toBe(401);
     expect(await status(phone2)).toBe(401);
     expect(await status(onOtherFarm)).toBe(401);
     const signInWith = (password: string) => signIn(post("/api/auth/sign-in", { email: m.email, password }, { ip: "192.0.2.21" }), noCtx);
