@@ -7,7 +7,8 @@ import { Button } from "@/components/ui/Button";
 import { Field, Input } from "@/components/ui/Field";
 import { describeSaveError } from "@/components/bags/save-error";
 import { formatShortDay as formatDay } from "@/components/bags/format-day";
-import { findStartingTotal, judgeCountEntry, stepTotal, type DailyTotal } from "./count-series";
+import { judgeCountEntry, type DailyTotal } from "@/lib/domain/count-rules";
+import { findStartingTotal, stepTotal } from "./count-series";
 import { Notice } from "@/components/season/Notice";
 
 /** Big −/+ steppers for the running total of seedlings up on a day; saves on the phone (works with no signal). */

@@ -6,7 +6,6 @@ import type { Sowing } from "@/lib/schemas/sowing";
 
 // Pure wiring between the phone's count rows and lib/domain: no React, no Dexie, so it is unit-tested.
 // The rule for a running total (judgeCountEntry) lives in lib/domain: the server re-checks pushed counts with it.
-export { judgeCountEntry, pickDailyTotals, type CountVerdict as StepperVerdict, type DailyTotal } from "@/lib/domain/count-rules";
 
 type CountRow = CountRowForTotals;
 

@@ -7,6 +7,7 @@ import {
   prepareStoreReadings,
   type ColdExposure,
   type IsoDay,
+  type StoreReadings,
   type PullWindow,
   type TemperatureReading,
   type TemperatureUnit,
@@ -69,6 +70,17 @@ export interface BagCold {
   reason: string;
 }
 
+// Every bag of a store reads the same readings: convert and sort them once per readings array, not once per bag.
+const preparedReadings = new WeakMap<readonly ReadingRow[], { temperatureReadings: TemperatureReading[]; prepared: StoreReadings }>();
+function prepareOnce(readings: readonly ReadingRow[]) {
+  let hit = preparedReadings.get(readings);
+  if (!hit) {
+    const temperatureReadings = toTemperatureReadings(readings);
+    preparedReadings.set(readings, (hit = { temperatureReadings, prepared: prepareStoreReadings(temperatureReadings) }));
+  }
+  return hit;
+}
+
 /**
  * A bag's cold in this store: its effective window (the same lib/domain function Today, the bags table, labels and
  * the digest use, so this page never disagrees with them) and, in a fridge, the hours behind it.
@@ -80,8 +92,8 @@ export function measureBagCold(
   storeKind: StoreKind,
   today: IsoDay,
 ): BagCold {
-  const temperatureReadings = toTemperatureReadings(readings);
-  const effective = findEffectiveBagWindow(bag, protocol, prepareStoreReadings(temperatureReadings), today, { storeKind });
+  const { temperatureReadings, prepared } = prepareOnce(readings);
+  const effective = findEffectiveBagWindow(bag, protocol, prepared, today, { storeKind });
   let exposure: ColdExposure | null = null;
   if (effective.span && storeKind === "fridge" && effective.span.to > effective.span.from) {
     try {

@@ -3,11 +3,11 @@
 import Link from "next/link";
 import { useMemo, useState } from "react";
 import { useSearchParams } from "next/navigation";
-import Dexie from "dexie";
 import { useLiveQuery } from "dexie-react-hooks";
 import { getLocalDb } from "@/lib/client/db";
+import { loadReadingsOfBagStores } from "@/lib/client/fridge-reads";
 import { saveProtocol, updateBag } from "@/lib/client/repo";
-import { addDaysToIsoDay, describeReconciledPhase, determineBagState, formatBagCode, reconcileProtocol } from "@/lib/domain";
+import { describeReconciledPhase, determineBagState, formatBagCode, reconcileProtocol } from "@/lib/domain";
 import { vocabularyLabels, type StoreKind } from "@/lib/schemas/vocabulary";
 import type { MutationArgs } from "@/lib/schemas/mutations";
 import { Button } from "@/components/ui/Button";
@@ -52,15 +52,7 @@ export function TrialView() {
     const counts = await db.counts.where("sowing_id").anyOf(sowings.map((s) => s.id)).toArray();
     const [protocols, stores, lots] = await Promise.all([db.protocols.toArray(), db.stores.toArray(), db.lots.toArray()]);
     // The fridges' readings since the earliest of these bags went in: they move windows, as on every other screen.
-    const inCold = bags.filter((b) => b.start_date && !b.pulled_on && !b.sown_on && !b.discarded_on && b.store_id);
-    const readings = (
-      await Promise.all(
-        [...new Set(inCold.map((b) => b.store_id!))].map((storeId) => {
-          const from = inCold.filter((b) => b.store_id === storeId).reduce((min, b) => (b.start_date! < min ? b.start_date! : min), "9999-12-31");
-          return db.readings.where("[store_id+taken_at]").between([storeId, addDaysToIsoDay(from, -2)], [storeId, Dexie.maxKey]).toArray();
-        }),
-      )
-    ).flat();
+    const readings = await loadReadingsOfBagStores(db, bags, stores, "in_cold");
     return { trial, arms, lot, bags, sowings, counts, protocols: protocols.filter((p) => !p.deleted_at), stores, lots: lots.filter((l) => !l.deleted_at), readingsByStore: prepareReadingsByStore(readings) } as const;
   }, [id]);
 

@@ -1,10 +1,9 @@
 import { describe, expect, it } from "vitest";
 import { addDaysToIsoDay } from "@/lib/domain/dates";
+import { judgeCountEntry, pickDailyTotals } from "@/lib/domain/count-rules";
 import {
   findFinalTotal,
   findStartingTotal,
-  judgeCountEntry,
-  pickDailyTotals,
   stepTotal,
   summarizeSowing,
   toGerminationCounts,
