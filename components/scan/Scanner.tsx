@@ -192,7 +192,7 @@ export function Scanner() {
           submitTyped(typed);
         }}
       >
-        <Field label="Or type the code from the label" htmlFor="typed-code" error={typedError} hint="Seven letters and digits, e.g. K7M-4QZX. Capitals, spaces and dashes do not matter.">
+        <Field label="Or type the code from the label" htmlFor="typed-code" error={typedError} hint="Eight letters and digits, e.g. K7M4-4QZX (seven on older labels). Capitals, spaces and dashes do not matter.">
           <Input
             id="typed-code"
             value={typed}

@@ -2,11 +2,19 @@ import { DomainError } from "@/lib/errors";
 
 // Douglas Crockford, "Base 32" (crockford.com/base32.html): 32 symbols without I, L, O, U; decoding folds
 // O→0 and I/L→1 and ignores hyphens; an optional check symbol encodes the value modulo 37 with * ~ $ = U for 32–36.
+//
+// Bag codes. New codes: 7 data symbols and a check character from the same 32 symbols, computed with Damm's
+// totally anti-symmetric quasigroup x∘y = a·x ⊕ y over GF(2⁵) (Damm 2004): it catches every single wrong character
+// and every swap of neighbours, and never needs the phone's symbol keyboard. Codes printed before (6 data symbols
+// and Crockford's mod-37 check, which may be * ~ $ = U) keep scanning and typing: the length tells the two apart,
+// and a typo never changes the length, so each kind keeps its own guarantee.
 
 export const crockfordSymbols = "0123456789ABCDEFGHJKMNPQRSTVWXYZ";
 export const crockfordCheckSymbols = `${crockfordSymbols}*~$=U`;
-/** Data symbols in a bag code; one check symbol follows. 32^6 ≈ 1.07 billion codes. */
-export const bagCodeDataLength = 6;
+/** Data symbols in a new bag code; one check character follows. 32^7 ≈ 34 billion codes. */
+export const bagCodeDataLength = 7;
+/** Data symbols in a code printed before the Damm check (mod-37 check symbol). */
+export const legacyBagCodeDataLength = 6;
 
 const decodeTable: Record<string, number> = (() => {
   const t: Record<string, number> = {};
@@ -58,16 +66,40 @@ export function computeCheckSymbol(data: string): string {
   return crockfordCheckSymbols[r];
 }
 
-/** A new bag code from caller-supplied random bytes (keeps this pure; use crypto.getRandomValues). */
-export function generateBagCode(randomBytes: Uint8Array, dataLength = bagCodeDataLength): string {
-  if (randomBytes.length < dataLength) throw new DomainError(`A bag code needs ${dataLength} random bytes.`);
-  let data = "";
-  // 256 is a multiple of 32, so the low five bits of each byte are uniform.
-  for (let i = 0; i < dataLength; i++) data += crockfordSymbols[randomBytes[i] & 31];
-  return data + computeCheckSymbol(data);
+/** a·x in GF(2⁵) with modulus x⁵ + x² + 1 and a = x: shift left, reduce by 0b100101 on overflow. */
+function timesA(v: number): number {
+  const s = v << 1;
+  return s & 32 ? s ^ 0b100101 : s;
 }
 
-/** "K7M4QZX" → "K7M-4QZX", easier to read aloud and type. */
+/** Damm's interim value after the given symbols: interim ← interim ∘ d = a·interim ⊕ d, from 0. */
+function dammInterim(symbols: string): number {
+  let interim = 0;
+  for (const ch of symbols) interim = timesA(interim) ^ valueOf(ch);
+  return interim;
+}
+
+/** The check character of a new bag code: the c with interim ∘ c = 0, i.e. c = a·interim. */
+export function computeDammCheck(data: string): string {
+  return crockfordSymbols[timesA(dammInterim(normalizeCrockford(data)))];
+}
+
+/** True when a whole code (data then check) reduces to 0 through the quasigroup. */
+function passesDamm(code: string): boolean {
+  for (const ch of code) if (decodeTable[ch] === undefined || decodeTable[ch] >= 32) return false;
+  return dammInterim(code) === 0;
+}
+
+/** A new bag code from caller-supplied random bytes (keeps this pure; use crypto.getRandomValues). */
+export function generateBagCode(randomBytes: Uint8Array): string {
+  if (randomBytes.length < bagCodeDataLength) throw new DomainError(`A bag code needs ${bagCodeDataLength} random bytes.`);
+  let data = "";
+  // 256 is a multiple of 32, so the low five bits of each byte are uniform.
+  for (let i = 0; i < bagCodeDataLength; i++) data += crockfordSymbols[randomBytes[i] & 31];
+  return data + computeDammCheck(data);
+}
+
+/** "K7M44QZX" → "K7M4-4QZX" (and "K7M4QZX" → "K7M-4QZX"), easier to read aloud and type. */
 export function formatBagCode(code: string): string {
   const s = normalizeCrockford(code);
   const cut = Math.floor(s.length / 2);
@@ -78,8 +110,8 @@ export type BagCodeParse =
   | { ok: true; code: string }
   | { ok: false; reason: "empty" | "bad_character" | "wrong_length" | "wrong_check"; message: string };
 
-/** Reads a typed or scanned code: any case, hyphens and spaces ignored, O→0, I/L→1; the check symbol must match. */
-export function parseBagCode(text: string, dataLength = bagCodeDataLength): BagCodeParse {
+/** Reads a typed or scanned code: any case, hyphens and spaces ignored, O→0, I/L→1; the check character must match. */
+export function parseBagCode(text: string): BagCodeParse {
   const s = normalizeCrockford(text);
   if (s === "") return { ok: false, reason: "empty", message: "Type the code from the bag's label." };
   const body = s.slice(0, -1);
@@ -93,8 +125,16 @@ export function parseBagCode(text: string, dataLength = bagCodeDataLength): BagC
   if (decodeTable[check] === undefined) {
     return { ok: false, reason: "bad_character", message: `"${check}" does not appear in bag codes; check the label again.` };
   }
-  if (s.length !== dataLength + 1) {
-    return { ok: false, reason: "wrong_length", message: `A bag code has ${dataLength + 1} characters; this one has ${s.length}.` };
+  if (s.length === bagCodeDataLength + 1) {
+    if (passesDamm(s)) return { ok: true, code: s };
+    return { ok: false, reason: "wrong_check", message: "That code does not add up: one character is probably mistyped." };
+  }
+  if (s.length !== legacyBagCodeDataLength + 1) {
+    return {
+      ok: false,
+      reason: "wrong_length",
+      message: `A bag code has ${bagCodeDataLength + 1} characters (${legacyBagCodeDataLength + 1} on older labels); this one has ${s.length}.`,
+    };
   }
   if (computeCheckSymbol(body) !== check) {
     return { ok: false, reason: "wrong_check", message: "That code does not add up: one character is probably mistyped." };

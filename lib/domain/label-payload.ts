@@ -1,8 +1,8 @@
 import { normalizeCrockford, parseBagCode } from "./bag-codes";
 
-// What a Rimebook label's QR code says: a link to the bag's check sheet, `${origin}/check?code=K7M4QZX`.
+// What a Rimebook label's QR code says: a link to the bag's check sheet, `${origin}/check?code=K7M44QZX`.
 // Any phone camera app then opens the right sheet; inside Rimebook the scanner reads the code from it.
-// The reader also takes `rimebook:bag:K7M4QZX` and a bare code, so labels printed by hand or by an older
+// The reader also takes `rimebook:bag:K7M44QZX` and a bare code, so labels printed by hand or by an older
 // address still scan. The origin is not trusted: the code is looked up in the signed-in farm's own bags.
 
 export const labelPath = "/check";

@@ -7,6 +7,7 @@ import type { Browser, Page } from "playwright-core";
 import { startApp, type AppServer } from "./support/server";
 import { launchChromium, phoneContext, shoot, watchErrors } from "./support/browser";
 import { addDaysToIsoDay, formatIsoDay } from "@/lib/domain/dates";
+import { formatBagCode } from "@/lib/domain/bag-codes";
 
 let app: AppServer;
 let browser: Browser;
@@ -101,12 +102,12 @@ describe("bags, lots and protocols on a phone", () => {
     await signIn(page, "tomas@bramblewick.example", "grower-frost-demo");
     await waitForBags(page);
     // The table finds the bag by its code typed in lower case with a hyphen.
-    await page.getByPlaceholder("Search code, species, store or box").fill(`${made.code.slice(0, 3).toLowerCase()}-${made.code.slice(3)}`);
+    await page.getByPlaceholder("Search code, species, store or box").fill(formatBagCode(made.code).toLowerCase());
     const cards = page.getByRole("list", { name: "Bags" }).getByRole("link");
     await expect.poll(() => cards.count()).toBe(1);
     await cards.first().click();
     await page.waitForURL(/\/bags\/view\?id=/);
-    await page.getByRole("heading", { level: 1 }).filter({ hasText: `${made.code.slice(0, 3)}-${made.code.slice(3)}` }).waitFor();
+    await page.getByRole("heading", { level: 1 }).filter({ hasText: formatBagCode(made.code) }).waitFor();
     await page.getByRole("img", { name: /Started .* window opens/ }).waitFor();
 
     await page.getByRole("button", { name: "Edit", exact: true }).click();

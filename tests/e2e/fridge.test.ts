@@ -8,6 +8,7 @@ import type { Browser, Page } from "playwright-core";
 import { startApp, type AppServer } from "./support/server";
 import { launchChromium, phoneContext, shoot, watchErrors } from "./support/browser";
 import { ARTIFACTS } from "./support/build";
+import { formatBagCode } from "@/lib/domain/bag-codes";
 import { matrixFromLabelPath, writeQrVideo } from "./support/qr-camera";
 import { queryServer, signIn, waitForRows, waitForServiceWorker } from "./support/pages";
 
@@ -95,7 +96,7 @@ describe("scan a printed label and save a check with one tap", () => {
     await page.goto(`/labels?ids=${bag.id}&size=large`);
     const label = page.locator(`article[data-code="${bag.code}"]`);
     await label.waitFor();
-    await expect(label.textContent()).resolves.toContain(`${bag.code.slice(0, 3)}-${bag.code.slice(3)}`);
+    await expect(label.textContent()).resolves.toContain(formatBagCode(bag.code));
     await shoot(page, "fridge-01-labels");
     await page.emulateMedia({ media: "print" });
     await page.pdf({ path: path.join(ARTIFACTS, "fridge-labels.pdf"), preferCSSPageSize: true, printBackground: true });
@@ -127,7 +128,7 @@ describe("scan a printed label and save a check with one tap", () => {
     await page.getByRole("link", { name: /scan a bag/i }).click();
     await waitForSheet(page, bag.id, errors);
     await page.getByTestId("bag-header").waitFor();
-    await expect(page.getByTestId("bag-header").textContent()).resolves.toContain(`${bag.code.slice(0, 3)}-${bag.code.slice(3)}`);
+    await expect(page.getByTestId("bag-header").textContent()).resolves.toContain(formatBagCode(bag.code));
     await shoot(page, "fridge-03-check-sheet");
 
     await page.getByTestId("all-good").click();

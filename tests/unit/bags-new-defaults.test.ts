@@ -99,16 +99,16 @@ describe("generateUniqueBagCode", () => {
     let i = 0;
     return () => Uint8Array.from(seq[Math.min(i++, seq.length - 1)]);
   };
-  it("makes a code whose check character passes (Crockford base 32, mod 37)", () => {
+  it("makes a code whose check character passes (Crockford base 32, Damm check)", () => {
     const code = generateUniqueBagCode([], bytes([1, 2, 3, 4, 5, 6, 7, 8]));
-    expect(code.slice(0, 6)).toBe("123456");
+    expect(code.slice(0, 7)).toBe("1234567");
     expect(parseBagCode(code)).toEqual({ ok: true, code });
   });
   it("skips a code already on the phone, however it was typed", () => {
     const first = generateUniqueBagCode([], bytes([1, 2, 3, 4, 5, 6, 0, 0]));
     const taken = `${first.slice(0, 3).toLowerCase()}-${first.slice(3)}`;
-    const next = generateUniqueBagCode([taken], bytes([1, 2, 3, 4, 5, 6, 0, 0], [9, 9, 9, 9, 9, 9, 0, 0]));
-    expect(next.slice(0, 6)).toBe("999999");
+    const next = generateUniqueBagCode([taken], bytes([1, 2, 3, 4, 5, 6, 0, 0], [9, 9, 9, 9, 9, 9, 9, 0]));
+    expect(next.slice(0, 7)).toBe("9999999");
   });
   it("gives up with a message instead of looping forever", () => {
     const only = generateUniqueBagCode([], bytes([0, 0, 0, 0, 0, 0, 0, 0]));

@@ -41,7 +41,7 @@ describe("the fake camera's label video", () => {
     try {
       const unread: string[] = [];
       for (let i = 0; i < 40; i++) {
-        const code = generateBagCode(crypto.getRandomValues(new Uint8Array(6)));
+        const code = generateBagCode(crypto.getRandomValues(new Uint8Array(7)));
         const text = buildLabelPayload(code, `http://127.0.0.1:${30000 + i * 577}`);
         const { size, path: d } = drawQr(text);
         const file = path.join(dir, `${code.replace(/[^A-Z0-9]/g, "_")}.y4m`);

@@ -60,7 +60,7 @@ describe("typed codes", () => {
   });
 
   it("says the length is wrong in plain words", () => {
-    expect(lookUpTypedCode(codeA.slice(0, 5), farm)).toMatchObject({ kind: "invalid", message: expect.stringMatching(/7 characters; this one has 5/) });
+    expect(lookUpTypedCode(codeA.slice(0, 5), farm)).toMatchObject({ kind: "invalid", message: expect.stringMatching(/8 characters \(7 on older labels\); this one has 5/) });
     expect(lookUpTypedCode("", farm)).toMatchObject({ kind: "invalid", suggestions: [] });
   });
 

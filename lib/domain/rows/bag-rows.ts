@@ -36,7 +36,7 @@ import { readProtocolRow } from "@/lib/domain/rows/protocol-row";
 export interface BagRow {
   id: string;
   code: string;
-  /** "K7M-4QZX": easier to read aloud. */
+  /** "K7M4-4QZX": easier to read aloud. */
   codeShown: string;
   lotId: string;
   species: string;

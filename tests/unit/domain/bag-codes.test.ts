@@ -3,6 +3,7 @@ import fc from "fast-check";
 import {
   bagCodeDataLength,
   computeCheckSymbol,
+  computeDammCheck,
   crockfordCheckSymbols,
   crockfordSymbols,
   decodeCrockford,
@@ -10,6 +11,7 @@ import {
   formatBagCode,
   generateBagCode,
   normalizeCrockford,
+  legacyBagCodeDataLength,
   parseBagCode,
   suggestBagCodes,
 } from "@/lib/domain";
@@ -74,8 +76,8 @@ describe("bag codes", () => {
   });
 
   it("is pure: the same bytes give the same code", () => {
-    const b = new Uint8Array([1, 2, 3, 4, 5, 6]);
-    expect(generateBagCode(b)).toBe("123456" + computeCheckSymbol("123456"));
+    const b = new Uint8Array([1, 2, 3, 4, 5, 6, 7]);
+    expect(generateBagCode(b)).toBe("1234567" + computeDammCheck("1234567"));
     expect(generateBagCode(b)).toBe(generateBagCode(b));
   });
 
@@ -89,27 +91,159 @@ describe("bag codes", () => {
     expect(normalizeCrockford("oil-O")).toBe("0110");
   });
 
-  it("catches every single wrong character and every adjacent swap (spec claim, property)", () => {
+  // Damm, H. M. (2004), Total anti-symmetrische Quasigruppen, dissertation, Philipps-Universität Marburg:
+  // x∘y = a·x ⊕ y over GF(2⁵) (modulus x⁵ + x² + 1, a = x) is totally anti-symmetric, so the check catches every
+  // single substitution and every neighbour swap. The check is linear over GF(2⁵): the code's remainder after a
+  // change is its old remainder (0) plus a term that depends only on the changed position(s) and their old and new
+  // symbols. Trying every position with every pair of symbols therefore covers every code there is; the test
+  // first confirms that linearity on random codes, then runs the whole enumeration.
+  const symbols = [...crockfordSymbols];
+  const codeOf = (chars: string[]) => chars.join("");
+
+  it("new codes use only the 32 letters and digits, check character included", () => {
     fc.assert(
-      fc.property(bytes, fc.nat({ max: bagCodeDataLength }), fc.nat({ max: 31 }), (b, pos, sym) => {
+      fc.property(bytes, (b) => {
         const code = generateBagCode(b);
-        const chars = code.split("");
-        const replacement = pos === bagCodeDataLength ? crockfordCheckSymbols[sym] : crockfordSymbols[sym];
-        fc.pre(chars[pos] !== replacement);
-        chars[pos] = replacement;
-        expect(parseBagCode(chars.join("")).ok).toBe(false);
-        const swapAt = pos % (bagCodeDataLength - 1);
-        const swapped = code.split("");
-        [swapped[swapAt], swapped[swapAt + 1]] = [swapped[swapAt + 1], swapped[swapAt]];
-        if (swapped[swapAt] !== swapped[swapAt + 1]) expect(parseBagCode(swapped.join("")).ok).toBe(false);
+        expect(code).toMatch(/^[0-9A-HJKMNP-TV-Z]{8}$/);
       }),
     );
+  });
+
+  it("a change is caught or not whatever the rest of the code is (linearity, property)", () => {
+    fc.assert(
+      fc.property(bytes, bytes, fc.nat({ max: bagCodeDataLength }), fc.nat({ max: 31 }), (b1, b2, pos, sym) => {
+        // Put the same symbol at the same place in two random valid codes: both stay valid or both fail.
+        const a = generateBagCode(b1).split("");
+        const c = generateBagCode(b2).split("");
+        const deltaA = symbols.indexOf(a[pos]) ^ sym;
+        const replacementC = symbols[symbols.indexOf(c[pos]) ^ deltaA];
+        a[pos] = symbols[sym];
+        c[pos] = replacementC;
+        expect(parseBagCode(codeOf(a)).ok).toBe(parseBagCode(codeOf(c)).ok);
+      }),
+    );
+  });
+
+  /** A valid new code with the given symbols at the given places: the check follows, or, when the check
+   *  character itself is set, the free data symbol just before the set places is chosen to produce it. */
+  function validCodeWith(fixed: Record<number, string>): string {
+    const chars = Array.from({ length: bagCodeDataLength + 1 }, () => "0");
+    for (const [pos, sym] of Object.entries(fixed)) chars[Number(pos)] = sym;
+    const data = () => codeOf(chars).slice(0, bagCodeDataLength);
+    const wantedCheck = fixed[bagCodeDataLength];
+    if (wantedCheck === undefined) {
+      chars[bagCodeDataLength] = computeDammCheck(data());
+    } else {
+      const free = Math.min(...Object.keys(fixed).map(Number)) - 1;
+      const found = symbols.some((sym) => {
+        chars[free] = sym;
+        return computeDammCheck(data()) === wantedCheck;
+      });
+      if (!found) throw new Error("every check value is reachable by changing one data symbol");
+    }
+    const code = codeOf(chars);
+    expect(parseBagCode(code)).toEqual({ ok: true, code });
+    return code;
+  }
+
+  it("catches every single wrong character at every place, exhaustively (Damm 2004)", () => {
+    let tried = 0;
+    for (let pos = 0; pos <= bagCodeDataLength; pos++) {
+      for (const from of symbols) {
+        const valid = validCodeWith({ [pos]: from });
+        for (const to of symbols) {
+          if (to === from) continue;
+          const typo = valid.split("");
+          typo[pos] = to;
+          expect(parseBagCode(codeOf(typo))).toMatchObject({ ok: false, reason: "wrong_check" });
+          tried++;
+        }
+      }
+    }
+    expect(tried).toBe((bagCodeDataLength + 1) * 32 * 31);
+  });
+
+  it("catches every swap of neighbours at every place, the check character included, exhaustively (Damm 2004)", () => {
+    let tried = 0;
+    for (let pos = 0; pos < bagCodeDataLength; pos++) {
+      for (const x of symbols) {
+        for (const y of symbols) {
+          if (x === y) continue;
+          const valid = validCodeWith({ [pos]: x, [pos + 1]: y });
+          const swapped = valid.split("");
+          [swapped[pos], swapped[pos + 1]] = [swapped[pos + 1], swapped[pos]];
+          expect(parseBagCode(codeOf(swapped))).toMatchObject({ ok: false, reason: "wrong_check" });
+          tried++;
+        }
+      }
+    }
+    expect(tried).toBe(bagCodeDataLength * 32 * 31);
+  });
+
+  it("the same two checks on random codes, every place and every symbol (property)", () => {
+    fc.assert(
+      fc.property(bytes, (b) => {
+        const code = generateBagCode(b);
+        for (let pos = 0; pos <= bagCodeDataLength; pos++) {
+          for (const to of symbols) {
+            if (to === code[pos]) continue;
+            const typo = code.split("");
+            typo[pos] = to;
+            expect(parseBagCode(codeOf(typo)).ok).toBe(false);
+          }
+          if (pos < bagCodeDataLength && code[pos] !== code[pos + 1]) {
+            const swapped = code.split("");
+            [swapped[pos], swapped[pos + 1]] = [swapped[pos + 1], swapped[pos]];
+            expect(parseBagCode(codeOf(swapped)).ok).toBe(false);
+          }
+        }
+      }),
+      { numRuns: 300 },
+    );
+  });
+
+  describe("codes printed before the Damm check (6 symbols and a mod-37 check)", () => {
+    const legacyBytes = fc.uint8Array({ minLength: legacyBagCodeDataLength, maxLength: legacyBagCodeDataLength });
+    const legacyCode = (b: Uint8Array) => {
+      const data = Array.from(b, (x) => crockfordSymbols[x & 31]).join("");
+      return data + computeCheckSymbol(data);
+    };
+
+    it("still parse, typed in any case, with a hyphen, check symbols * ~ $ = U included", () => {
+      fc.assert(
+        fc.property(legacyBytes, (b) => {
+          const code = legacyCode(b);
+          expect(parseBagCode(code)).toEqual({ ok: true, code });
+          expect(parseBagCode(formatBagCode(code).toLowerCase())).toEqual({ ok: true, code });
+        }),
+      );
+      // 32 mod 37 = 32, so the body "000010" (value 32) carries the check symbol "*".
+      expect(computeCheckSymbol("000010")).toBe("*");
+      expect(parseBagCode("000-010*")).toEqual({ ok: true, code: "000010*" });
+    });
+
+    it("keep catching every single wrong character and every adjacent swap (Crockford, property)", () => {
+      fc.assert(
+        fc.property(legacyBytes, fc.nat({ max: legacyBagCodeDataLength }), fc.nat({ max: 31 }), (b, pos, sym) => {
+          const code = legacyCode(b);
+          const chars = code.split("");
+          const replacement = pos === legacyBagCodeDataLength ? crockfordCheckSymbols[sym] : crockfordSymbols[sym];
+          fc.pre(chars[pos] !== replacement);
+          chars[pos] = replacement;
+          expect(parseBagCode(chars.join("")).ok).toBe(false);
+          const swapAt = pos % (legacyBagCodeDataLength - 1);
+          const swapped = code.split("");
+          [swapped[swapAt], swapped[swapAt + 1]] = [swapped[swapAt + 1], swapped[swapAt]];
+          if (swapped[swapAt] !== swapped[swapAt + 1]) expect(parseBagCode(swapped.join("")).ok).toBe(false);
+        }),
+      );
+    });
   });
 
   it.each([
     ["", "empty"],
     ["ABC", "wrong_length"],
-    ["ABCDEFGH1", "wrong_length"],
+    ["ABCDEFGHJ1", "wrong_length"],
     ["AB#DEF1", "bad_character"],
     ["ABUDEF1", "bad_character"], // U is only a check symbol (spec)
     ["AB*DEF1", "bad_character"],
@@ -120,7 +254,7 @@ describe("bag codes", () => {
   });
 
   it("refuses a wrong check symbol with a calm message", () => {
-    const code = generateBagCode(new Uint8Array([9, 8, 7, 6, 5, 4]));
+    const code = generateBagCode(new Uint8Array([9, 8, 7, 6, 5, 4, 3]));
     const wrong = code.slice(0, -1) + (code.endsWith("0") ? "1" : "0");
     const r = parseBagCode(wrong);
     expect(r).toMatchObject({ ok: false, reason: "wrong_check" });
