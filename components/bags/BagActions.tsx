@@ -7,9 +7,8 @@ import type { Store } from "@/lib/schemas/store";
 import type { BagState } from "@/lib/schemas/vocabulary";
 import { discardBag, pullBag } from "@/lib/client/repo";
 import { Button, buttonClass } from "@/components/ui/Button";
-import { Caution, cautionTexts } from "@/components/ui/Caution";
-import { Field, Input, TextArea } from "@/components/ui/Field";
 import { BagEditForm } from "./BagEditForm";
+import { DiscardPanel, PullPanel } from "./EndBagPanels";
 import { describeSaveError } from "./save-error";
 import { SaveError } from "./FormBits";
 
@@ -28,13 +27,10 @@ export interface BagPermissions {
 /** What a member can do with the bag in front of them, by role (hidden, not just disabled, when the role cannot). */
 export function BagActions({ bag, state, stores, today, can }: { bag: Bag; state: BagState; stores: readonly Store[]; today: string; can: BagPermissions }) {
   const [panel, setPanel] = useState<Panel>(null);
-  const [day, setDay] = useState(today);
-  const [reason, setReason] = useState("");
   const [error, setError] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
   const open = (p: Panel) => {
     setError(null);
-    setDay(today);
     setPanel((cur) => (cur === p ? null : p));
   };
   const run = async (write: () => Promise<unknown>) => {
@@ -88,33 +84,10 @@ export function BagActions({ bag, state, stores, today, can }: { bag: Bag; state
         ) : null}
       </div>
 
-      {panel === "pull" ? (
-        <section aria-label="Pull the bag" className="space-y-3 rounded-card border-2 border-moss-600 bg-moss-100 p-3">
-          <p className="text-body">Take the bag out of the cold. Sow soon: sprouted roots break easily.</p>
-          <Field label="Pulled on" htmlFor="pull-day">
-            <Input id="pull-day" type="date" value={day} max={today} min={bag.start_date ?? undefined} onChange={(e) => setDay(e.target.value)} />
-          </Field>
-          <Button tone="good" size="lg" className="w-full" disabled={busy || !day} onClick={() => run(() => pullBag(bag.id, day))}>
-            Save the pull
-          </Button>
-        </section>
-      ) : null}
+      {panel === "pull" ? <PullPanel today={today} startedOn={bag.start_date ?? null} busy={busy} onConfirm={(day) => run(() => pullBag(bag.id, day))} /> : null}
 
       {panel === "discard" ? (
-        <section aria-label="Discard the bag" className="space-y-3 rounded-card border-2 border-ember-600 bg-white p-3">
-          <Caution title="If there is mould" tone="strong">
-            {cautionTexts.mould}
-          </Caution>
-          <Field label="Why is it discarded? (optional)" htmlFor="discard-reason" hint="For example: mould spreading, dried out, seed rotted.">
-            <TextArea id="discard-reason" value={reason} maxLength={500} onChange={(e) => setReason(e.target.value)} />
-          </Field>
-          <Field label="Discarded on" htmlFor="discard-day">
-            <Input id="discard-day" type="date" value={day} max={today} onChange={(e) => setDay(e.target.value)} />
-          </Field>
-          <Button tone="danger" size="lg" className="w-full" disabled={busy || !day} onClick={() => run(() => discardBag(bag.id, day, reason.trim() || null))}>
-            Discard this bag
-          </Button>
-        </section>
+        <DiscardPanel today={today} busy={busy} onConfirm={(day, reason) => run(() => discardBag(bag.id, day, reason))} />
       ) : null}
 
       {panel === "edit" ? (

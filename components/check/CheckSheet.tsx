@@ -24,7 +24,21 @@ import { Segmented } from "@/components/ui/Segmented";
 import { StateBadge } from "@/components/ui/StateBadge";
 import { formatShortDay } from "@/components/bags/format-day";
 import { cadenceFor } from "@/lib/domain/rows/round-input";
-import { allGoodDraft, markAllGood, planCheckSave, previewCheck, toggleAction, type CheckDraft, type CheckSavePlan } from "./check-draft";
+import { adviseOnFindings, type CheckAdvice } from "@/lib/domain/schedule";
+import { chooseSheetSteps, sheetStepLabels, type SheetChoice, type SheetStep } from "@/lib/domain/check-choice";
+import { DiscardPanel, PullPanel } from "@/components/bags/EndBagPanels";
+import {
+  allGoodDraft,
+  isDraftEntered,
+  markAllGood,
+  planCheckSave,
+  previewCheck,
+  spreadingMouldReason,
+  toggleAction,
+  type CheckDraft,
+  type CheckEnd,
+  type CheckSavePlan,
+} from "./check-draft";
 import { compressPhoto } from "./compress-photo";
 import { describeSheet, formatPullWindow } from "./sheet-view";
 
@@ -34,6 +48,8 @@ import { describeSheet, formatPullWindow } from "./sheet-view";
 const moistureTone = (v: Moisture) => (v === "damp" ? "good" : "attention");
 const mouldTone = (v: Mould) => (v === "clean" ? "good" : v === "spots" ? "attention" : "danger");
 const sproutsTone = (v: Sprouts) => (v === "none" ? "neutral" : "good");
+// Pulling and discarding are steps of their own (with a date), not ticks among what was done.
+const sheetActions = checkActions.filter((a) => a !== "pulled" && a !== "discarded");
 const options = <T extends string>(values: readonly T[], labels: Record<T, string>) => values.map((value) => ({ value, label: labels[value] }));
 
 type Photo = { blob: Blob; url: string };
@@ -63,6 +79,7 @@ export function CheckSheet() {
   const [saveError, setSaveError] = useState<string | null>(null);
   const [photo, setPhoto] = useState<Photo | null>(null);
   const [photoNote, setPhotoNote] = useState<string | null>(null);
+  const [ending, setEnding] = useState<"pull" | "discard" | null>(null);
 
   // The resolver is kept by the form from its first render; it reads the bag and unit through a ref.
   const contextRef = useRef({ view, unit });
@@ -123,6 +140,13 @@ export function CheckSheet() {
   const { row, forCheck, cautions, lotText } = view;
   const preview = previewCheck(draft, forCheck, today, cadence, formatShortDay);
   const lastCheck = data.sheet.lastCheck;
+  const entered = isDraftEntered(draft, photo !== null);
+  const choice = chooseSheetSteps({ state: row.state, findings: draft, entered, lastCheck });
+  const findingAdvice = adviseOnFindings(draft);
+
+  // Back where the grower came from: the round, the bag's page, or (by default) the scanner for the next bag.
+  const leaveTo = () =>
+    from === "today" ? "/today" : from === "bag" ? `/bags/view?id=${encodeURIComponent(forCheck.id)}` : `/scan?saved=${encodeURIComponent(row.code)}`;
 
   async function persist(plan: CheckSavePlan) {
     setSaving(true);
@@ -133,10 +157,7 @@ export function CheckSheet() {
       if (photo) await queuePhoto({ bagId: forCheck.id, checkId: plan.check.id, blob: photo.blob });
       if (plan.discard) await discardBag(plan.discard.id, plan.discard.discarded_on, plan.discard.discard_reason);
       else if (plan.pull) await pullBag(plan.pull.id, plan.pull.pulled_on);
-      // Back where the grower came from: the round, the bag's page, or (by default) the scanner for the next bag.
-      router.replace(
-        from === "today" ? "/today" : from === "bag" ? `/bags/view?id=${encodeURIComponent(forCheck.id)}` : `/scan?saved=${encodeURIComponent(row.code)}`,
-      );
+      router.replace(leaveTo());
     } catch (e) {
       setSaving(false);
       setSaveError(e instanceof AppError ? e.message : "The check could not be saved on this phone. Try again; nothing was lost.");
@@ -156,6 +177,35 @@ export function CheckSheet() {
     if (r.ok) void persist(r.plan);
   });
 
+  /** A confirmed pull or discard: with the check when anything was entered, on its own otherwise. */
+  async function endBag(end: CheckEnd) {
+    if (!entered) {
+      setSaving(true);
+      setSaveError(null);
+      try {
+        if (end.kind === "pull") await pullBag(forCheck.id, end.on);
+        else await discardBag(forCheck.id, end.on, end.reason);
+        router.replace(leaveTo());
+      } catch (e) {
+        setSaving(false);
+        setSaveError(e instanceof AppError ? e.message : "Not saved on this phone. Try again; nothing was lost.");
+      }
+      return;
+    }
+    const r = planCheckSave(form.getValues(), { bag: forCheck, now: new Date(), today, unit, newId: () => crypto.randomUUID() }, end);
+    if (r.ok) return void persist(r.plan);
+    if (r.fields.temperature) form.setError("temperatureText", { type: "invalid", message: r.fields.temperature });
+    if (r.fields.note) form.setError("note", { type: "invalid", message: r.fields.note });
+    setEnding(null);
+    setSaveError("Not saved: see the marked field below.");
+  }
+
+  function runStep(step: SheetStep) {
+    if (step === "all_good" || step === "keep_chilling") return saveAllGood();
+    if (step === "save") return void onSubmit();
+    setEnding((cur) => (cur === step ? null : step));
+  }
+
   async function pickPhoto(file: File | undefined) {
     setPhotoNote(null);
     if (!file) return;
@@ -168,7 +218,6 @@ export function CheckSheet() {
     }
   }
 
-  const adviceBox = { fine: "border-moss-600 bg-moss-100", attention: "border-wheat-600 bg-wheat-100", act_now: "border-ember-600 bg-ember-100" }[preview.advice.level];
 
   return (
     <div className="space-y-5">
@@ -217,16 +266,6 @@ export function CheckSheet() {
         ) : null}
       </Card>
 
-      {row.state === "pulled" || row.state === "sown" || row.state === "discarded" ? (
-        <p role="note" className="rounded-card bg-rime-100 p-3 text-label">
-          This bag is {vocabularyLabels.bagState[row.state].toLowerCase()}: no more checks are due. A check saved here is still kept in its record.
-        </p>
-      ) : row.state === "planned" ? (
-        <p role="note" className="rounded-card bg-rime-100 p-3 text-label">
-          This bag has not started its cold yet: checks begin once it has a start date.
-        </p>
-      ) : null}
-
       {!mayRecord ? (
         <p role="note" className="rounded-card bg-rime-100 p-3 text-label">
           {role ? "Your role on this farm can look at bags but not record checks." : "Sign in on this phone to record checks."}
@@ -239,24 +278,30 @@ export function CheckSheet() {
         </p>
       ) : null}
 
-      <Button tone="good" size="xl" className="w-full" disabled={!mayRecord || saving} onClick={saveAllGood} data-testid="all-good">
-        <span aria-hidden="true" className="text-display leading-none">✓</span>
-        <span className="text-left leading-tight">
-          All good
-          <span className="block text-label font-medium">damp, dry corners, clean, no sprouts</span>
-        </span>
-      </Button>
-
-      {cautions.map((c) => (
-        <Caution key={c.key} title={c.title}>
-          {c.text}
-          {c.source ? <span className="block text-ink-soft">Source: {c.source}</span> : null}
-        </Caution>
-      ))}
+      {mayRecord ? (
+        <ChoiceBar
+          choice={choice}
+          busy={saving}
+          ending={ending}
+          onStep={runStep}
+          pullPanel={
+            <PullPanel today={today} startedOn={forCheck.startedOn} busy={saving} onConfirm={(on) => endBag({ kind: "pull", on })} onCancel={() => setEnding(null)} />
+          }
+          discardPanel={
+            <DiscardPanel
+              today={today}
+              busy={saving}
+              defaultReason={draft.mould === "spreading" || lastCheck?.mould === "spreading" ? spreadingMouldReason : ""}
+              onConfirm={(on, reason) => endBag({ kind: "discard", on, reason })}
+              onCancel={() => setEnding(null)}
+            />
+          }
+        />
+      ) : null}
 
       <form onSubmit={onSubmit} className="space-y-5" aria-labelledby="details-heading" noValidate>
         <h2 id="details-heading" className="border-t-2 border-rime-200 pt-4 text-title font-bold text-glacier-800">
-          Or record what you found
+          {entered ? "What you found" : "Or record what you found"}
         </h2>
         <Controller
           control={form.control}
@@ -265,6 +310,7 @@ export function CheckSheet() {
             <Segmented legend="Moisture" name="moisture" options={options(moistureLevels, vocabularyLabels.moisture)} value={field.value} onChange={field.onChange} tone={moistureTone} />
           )}
         />
+        <FindingAdvice advice={findingAdvice.moisture} testId="advice-moisture" />
         <Controller
           control={form.control}
           name="mould"
@@ -272,6 +318,9 @@ export function CheckSheet() {
             <Segmented legend="Mould" name="mould" options={options(mouldLevels, vocabularyLabels.mould)} value={field.value} onChange={field.onChange} tone={mouldTone} />
           )}
         />
+        <FindingAdvice advice={findingAdvice.mould} testId="advice-mould">
+          {preview.showMouldCaution ? <span className="block text-ink-soft">{cautionTexts.mould}</span> : null}
+        </FindingAdvice>
         <Controller
           control={form.control}
           name="sprouts"
@@ -279,24 +328,11 @@ export function CheckSheet() {
             <Segmented legend="Sprouts" name="sprouts" options={options(sproutLevels, vocabularyLabels.sprouts)} value={field.value} onChange={field.onChange} tone={sproutsTone} />
           )}
         />
+        <FindingAdvice advice={findingAdvice.sprouts} testId="advice-sprouts" />
 
-        <section aria-live="polite" className={`space-y-2 rounded-card border-l-4 p-3 ${adviceBox}`} data-testid="advice">
-          <p className="font-semibold">{preview.advice.headline}</p>
-          {preview.advice.steps.length ? (
-            <ul className="list-disc space-y-1 pl-5 text-label">
-              {preview.advice.steps.map((s) => (
-                <li key={s}>{s}</li>
-              ))}
-            </ul>
-          ) : null}
-          <p className="text-label font-semibold">{preview.nextText}</p>
-          {preview.suggestPull ? <p className="text-label">Pulling it now? Tick “Pulled” below and the bag leaves the round.</p> : null}
-        </section>
-        {preview.showMouldCaution ? (
-          <Caution title="Mould" tone="strong">
-            {cautionTexts.mould}
-          </Caution>
-        ) : null}
+        <p className="rounded-card bg-rime-100 p-3 text-label font-semibold" data-testid="advice" aria-live="polite">
+          {preview.nextText}
+        </p>
 
         <Controller
           control={form.control}
@@ -305,7 +341,7 @@ export function CheckSheet() {
             <fieldset className="space-y-1">
               <legend className="text-label font-semibold">What you did (tick all that apply)</legend>
               <div className="grid grid-cols-2 gap-2">
-                {checkActions.map((a) => {
+                {sheetActions.map((a) => {
                   const on = field.value.includes(a);
                   return (
                     <label
@@ -377,10 +413,91 @@ export function CheckSheet() {
             {form.formState.errors.root.message}
           </p>
         ) : null}
-        <Button type="submit" tone="primary" size="lg" className="w-full" disabled={!mayRecord || saving}>
-          Save check
-        </Button>
       </form>
+
+      {cautions.map((c) => (
+        <Caution key={c.key} title={c.title}>
+          {c.text}
+          {c.source ? <span className="block text-ink-soft">Source: {c.source}</span> : null}
+        </Caution>
+      ))}
+    </div>
+  );
+}
+
+const choiceFrame: Record<SheetChoice["tone"], string> = {
+  routine: "border-moss-600 bg-moss-100",
+  decide: "border-glacier-600 bg-rime-100",
+  act: "border-wheat-600 bg-wheat-100",
+  trouble: "border-ember-600 bg-ember-100",
+  closed: "border-rime-300 bg-rime-50",
+};
+
+/** The first steps the rule chose, largest first, kept in view under the header while the form scrolls. */
+function ChoiceBar({
+  choice,
+  busy,
+  ending,
+  onStep,
+  pullPanel,
+  discardPanel,
+}: {
+  choice: SheetChoice;
+  busy: boolean;
+  ending: "pull" | "discard" | null;
+  onStep: (step: SheetStep) => void;
+  pullPanel: React.ReactNode;
+  discardPanel: React.ReactNode;
+}) {
+  const stepButton = (step: SheetStep, size: "xl" | "lg" | "md") => {
+    const tone = step === "discard" ? "danger" : step === "pull" ? "good" : step === "save" ? "primary" : "good";
+    const quiet = size === "md";
+    return (
+      <Button
+        key={step}
+        tone={quiet ? (step === "discard" ? "danger" : "secondary") : tone}
+        size={size}
+        className={size === "md" ? "" : "flex-1"}
+        disabled={busy}
+        aria-expanded={step === "pull" || step === "discard" ? ending === step : undefined}
+        onClick={() => onStep(step)}
+        data-testid={step === "all_good" || step === "keep_chilling" ? "all-good" : `step-${step}`}
+      >
+        {step === "all_good" || step === "keep_chilling" ? <span aria-hidden="true" className="text-display leading-none">✓</span> : null}
+        <span className="text-left leading-tight">
+          {sheetStepLabels[step]}
+          {step === "all_good" ? <span className="block text-label font-medium">damp, dry corners, clean, no sprouts</span> : null}
+        </span>
+      </Button>
+    );
+  };
+  return (
+    <section aria-label="What to do with this bag" className={`sticky top-14 z-20 space-y-2 rounded-card border-l-4 p-3 shadow-sm ${choiceFrame[choice.tone]}`} data-testid="choice" data-tone={choice.tone}>
+      <p className="text-label font-semibold" data-testid="choice-why">
+        {choice.why}
+      </p>
+      {choice.first.length ? <div className="flex gap-2">{choice.first.map((s) => stepButton(s, choice.first.length > 1 ? "lg" : "xl"))}</div> : null}
+      {choice.then.length ? <div className="flex flex-wrap gap-2">{choice.then.map((s) => stepButton(s, "md"))}</div> : null}
+      {ending === "pull" ? pullPanel : ending === "discard" ? discardPanel : null}
+    </section>
+  );
+}
+
+/** The advice for one finding, right under the choice that caused it. */
+function FindingAdvice({ advice, testId, children }: { advice: CheckAdvice | null; testId: string; children?: React.ReactNode }) {
+  if (!advice) return null;
+  const frame = advice.level === "act_now" ? "border-ember-600 bg-ember-100" : "border-wheat-600 bg-wheat-100";
+  return (
+    <div className={`-mt-3 space-y-1 rounded-card border-l-4 p-3 text-label ${frame}`} data-testid={testId} role="status">
+      <p className="font-semibold">{advice.headline}</p>
+      {advice.steps.length ? (
+        <ul className="list-disc space-y-1 pl-5">
+          {advice.steps.map((s) => (
+            <li key={s}>{s}</li>
+          ))}
+        </ul>
+      ) : null}
+      {children}
     </div>
   );
 }

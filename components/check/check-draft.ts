@@ -20,12 +20,30 @@ export interface CheckDraft {
   temperatureText: string;
 }
 
+export const spreadingMouldReason = "Mould spreading (found at a check).";
+
 export const allGoodDraft: CheckDraft = { ...allGoodFindings, actions: [], note: "", temperatureText: "" };
 
 /** The one-tap save: the findings are "all good"; a note, temperature or action already entered is kept. */
 export function markAllGood(draft: CheckDraft): CheckDraft {
   return { ...draft, ...allGoodFindings };
 }
+
+/** Anything entered beyond the one-tap all good: another finding, an action, a note, a temperature or a photo. */
+export function isDraftEntered(draft: CheckDraft, hasPhoto = false): boolean {
+  return (
+    hasPhoto ||
+    draft.moisture !== allGoodDraft.moisture ||
+    draft.mould !== allGoodDraft.mould ||
+    draft.sprouts !== allGoodDraft.sprouts ||
+    draft.actions.length > 0 ||
+    draft.note.trim() !== "" ||
+    draft.temperatureText.trim() !== ""
+  );
+}
+
+/** Pulling or discarding from the sheet: its own confirmed step with its own date (and, for a discard, a reason). */
+export type CheckEnd = { kind: "pull"; on: IsoDay } | { kind: "discard"; on: IsoDay; reason: string | null };
 
 export interface BagForCheck {
   id: string;
@@ -102,8 +120,8 @@ export interface CheckSavePlan {
 
 export type CheckSaveResult = { ok: true; plan: CheckSavePlan } | { ok: false; fields: Partial<Record<"temperature" | "note" | "form", string>> };
 
-/** Validates the draft with the shared mutation schemas and lays out what to save. */
-export function planCheckSave(draft: CheckDraft, ctx: CheckSaveContext): CheckSaveResult {
+/** Validates the draft with the shared mutation schemas and lays out what to save; `end` pulls or discards too. */
+export function planCheckSave(draft: CheckDraft, ctx: CheckSaveContext, end?: CheckEnd): CheckSaveResult {
   let temperatureC: number | null = null;
   if (draft.temperatureText.trim() !== "") {
     try {
@@ -117,6 +135,9 @@ export function planCheckSave(draft: CheckDraft, ctx: CheckSaveContext): CheckSa
   }
   const at = ctx.now.toISOString();
   const checkId = ctx.newId();
+  // The check's record says what ended the bag, as it did when these were ticked among the actions.
+  const endAction = end?.kind === "pull" ? "pulled" : end?.kind === "discard" ? "discarded" : null;
+  const actions = endAction && !draft.actions.includes(endAction) ? [...draft.actions, endAction] : draft.actions;
   const check = mutationTable["check.record"].args.safeParse({
     id: checkId,
     bag_id: ctx.bag.id,
@@ -124,7 +145,7 @@ export function planCheckSave(draft: CheckDraft, ctx: CheckSaveContext): CheckSa
     moisture: draft.moisture,
     mould: draft.mould,
     sprouts: draft.sprouts,
-    actions: draft.actions,
+    actions,
     note: draft.note.trim() === "" ? null : draft.note,
     temperature_c: temperatureC,
   });
@@ -149,17 +170,17 @@ export function planCheckSave(draft: CheckDraft, ctx: CheckSaveContext): CheckSa
     if (!parsed.success) return { ok: false, fields: { temperature: parsed.error.issues[0]?.message ?? "Check the temperature." } };
     reading = parsed.data;
   }
-  const discarded = draft.actions.includes("discarded");
-  const pulled = !discarded && draft.actions.includes("pulled");
+  const discarded = actions.includes("discarded");
+  const pulled = !discarded && actions.includes("pulled");
+  const endOn = end?.on ?? ctx.today;
+  const discardReason = end?.kind === "discard" && end.reason ? end.reason : draft.mould === "spreading" ? spreadingMouldReason : null;
   return {
     ok: true,
     plan: {
       check: check.data,
       reading,
-      pull: pulled ? { id: ctx.bag.id, pulled_on: ctx.today } : null,
-      discard: discarded
-        ? { id: ctx.bag.id, discarded_on: ctx.today, discard_reason: draft.mould === "spreading" ? "Mould spreading (found at a check)." : null }
-        : null,
+      pull: pulled ? { id: ctx.bag.id, pulled_on: endOn } : null,
+      discard: discarded ? { id: ctx.bag.id, discarded_on: endOn, discard_reason: discardReason } : null,
     },
   };
 }

@@ -12,3 +12,4 @@ export * from "./statistics";
 export * from "./bag-codes";
 export * from "./cautions";
 export * from "./starter-protocols";
+export * from "./check-choice";

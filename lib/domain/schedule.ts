@@ -249,42 +249,55 @@ export interface CheckAdvice {
   steps: string[];
 }
 
-/** Calm grower words for what a check found. */
+/** The advice for one finding, shown right under the choice that caused it. Null when the finding is the good one. */
+export interface FindingAdviceSet {
+  moisture: CheckAdvice | null;
+  mould: CheckAdvice | null;
+  sprouts: CheckAdvice | null;
+}
+
+/** Calm grower words for each finding of a check, one piece per finding. */
+export function adviseOnFindings(findings: Pick<CheckFindings, "moisture" | "mould" | "sprouts">): FindingAdviceSet {
+  const mould: CheckAdvice | null =
+    findings.mould === "spreading"
+      ? {
+          level: "act_now",
+          headline: "Mould is spreading: discard this bag.",
+          steps: [
+            "Keep the bag sealed and put it straight in the bin.",
+            "Do not open it near your face or sniff it.",
+            "Wash your hands afterwards.",
+            "If the seed is precious, you may rescue clean-looking seeds onto fresh damp medium in a new bag, and check again tomorrow.",
+          ],
+        }
+      : findings.mould === "spots"
+        ? { level: "attention", headline: "A few mould spots.", steps: ["Lift out the seeds with mould on them and blot the medium; check again tomorrow.", "Wash your hands afterwards."] }
+        : null;
+  const sprouts: CheckAdvice | null =
+    findings.sprouts === "many"
+      ? { level: "act_now", headline: "Many seeds have sprouted: pull and sow today.", steps: ["Handle sprouted seeds gently; the young roots break easily."] }
+      : findings.sprouts === "first_roots"
+        ? { level: "act_now", headline: "First roots are showing: pull now and sow.", steps: ["Handle sprouted seeds gently; the young roots break easily."] }
+        : null;
+  const moisture: CheckAdvice | null =
+    findings.moisture === "soggy"
+      ? { level: "attention", headline: "The medium is soggy.", steps: ["Blot it with a dry towel until there is no free water; too wet breeds mould. Check again tomorrow."] }
+      : findings.moisture === "dry"
+        ? {
+            level: "attention",
+            headline: "The medium has dried out.",
+            steps: ["Add a few drops of water until it is damp with dry corners; seed that dries out can fall back asleep. Check again in two days."],
+          }
+        : null;
+  return { moisture, mould, sprouts };
+}
+
+/** Calm grower words for what a check found, all findings together. */
 export function adviseOnCheck(findings: Pick<CheckFindings, "moisture" | "mould" | "sprouts">): CheckAdvice {
-  const steps: string[] = [];
-  let level: AdviceLevel = "fine";
-  let headline = "All good: damp with dry corners, clean, no roots yet.";
-  if (findings.mould === "spreading") {
-    return {
-      level: "act_now",
-      headline: "Mould is spreading: discard this bag.",
-      steps: [
-        "Keep the bag sealed and put it straight in the bin.",
-        "Do not open it near your face or sniff it.",
-        "Wash your hands afterwards.",
-        "If the seed is precious, you may rescue clean-looking seeds onto fresh damp medium in a new bag, and check again tomorrow.",
-      ],
-    };
-  }
-  if (findings.sprouts === "first_roots" || findings.sprouts === "many") {
-    level = "act_now";
-    headline =
-      findings.sprouts === "many" ? "Many seeds have sprouted: pull and sow today." : "First roots are showing: pull now and sow.";
-    steps.push("Handle sprouted seeds gently; the young roots break easily.");
-  }
-  // Smaller problems add their steps; the first one found names the headline unless roots already did.
-  const problems: [boolean, string, string[]][] = [
-    [findings.mould === "spots", "A few mould spots.", ["Lift out the seeds with mould on them and blot the medium; check again tomorrow.", "Wash your hands afterwards."]],
-    [findings.moisture === "soggy", "The medium is soggy.", ["Blot it with a dry towel until there is no free water; too wet breeds mould. Check again tomorrow."]],
-    [findings.moisture === "dry", "The medium has dried out.", ["Add a few drops of water until it is damp with dry corners; seed that dries out can fall back asleep. Check again in two days."]],
-  ];
-  for (const [found, problemHeadline, problemSteps] of problems) {
-    if (!found) continue;
-    if (level === "fine") {
-      level = "attention";
-      headline = problemHeadline;
-    }
-    steps.push(...problemSteps);
-  }
-  return { level, headline, steps };
+  const each = adviseOnFindings(findings);
+  // Spreading mould decides alone; roots name the headline next; smaller problems add their steps.
+  if (each.mould?.level === "act_now") return each.mould;
+  const parts = [each.sprouts, each.mould, each.moisture].filter((a): a is CheckAdvice => a !== null);
+  if (parts.length === 0) return { level: "fine", headline: "All good: damp with dry corners, clean, no roots yet.", steps: [] };
+  return { level: parts[0].level, headline: parts[0].headline, steps: parts.flatMap((a) => a.steps) };
 }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { allGoodDraft, markAllGood, planCheckSave, previewCheck, toggleAction, type BagForCheck, type CheckDraft } from "@/components/check/check-draft";
+import { allGoodDraft, isDraftEntered, markAllGood, planCheckSave, previewCheck, toggleAction, type BagForCheck, type CheckDraft } from "@/components/check/check-draft";
 import { computePullWindow } from "@/lib/domain/schedule";
 import { formatPullWindow } from "@/components/check/sheet-view";
 import { starterProtocols } from "@/lib/domain/starter-protocols";
@@ -147,5 +147,32 @@ describe("pull window words", () => {
     [null, "No window (no protocol)"],
   ])("%j reads %j", (w, text) => {
     expect(formatPullWindow(w && { ...w, plannedPullOn: w.opensOn, sourcesDisagree: false }, (d) => d)).toBe(text);
+  });
+});
+
+describe("pulling and discarding from the sheet: their own step with a date", () => {
+  it("a confirmed pull saves the check with its findings, marks it pulled, and pulls on the chosen day", () => {
+    const r = planCheckSave(draft({ sprouts: "first_roots", note: "three radicles" }), ctx(), { kind: "pull", on: "2026-01-07" });
+    expect(r).toMatchObject({ ok: true, plan: { check: { sprouts: "first_roots", actions: ["pulled"] }, pull: { id: bag.id, pulled_on: "2026-01-07" }, discard: null } });
+  });
+
+  it("a confirmed discard keeps the grower's reason, or names spreading mould when none was given", () => {
+    const mine = planCheckSave(draft({ mould: "spreading" }), ctx(), { kind: "discard", on: "2026-01-08", reason: "seed rotted" });
+    expect(mine).toMatchObject({ ok: true, plan: { check: { actions: ["discarded"] }, discard: { discarded_on: "2026-01-08", discard_reason: "seed rotted" }, pull: null } });
+    const none = planCheckSave(draft({ mould: "spreading" }), ctx(), { kind: "discard", on: "2026-01-08", reason: null });
+    expect(none).toMatchObject({ ok: true, plan: { discard: { discard_reason: "Mould spreading (found at a check)." } } });
+  });
+
+  it("a bad temperature still stops the pull, with its field named", () => {
+    expect(planCheckSave(draft({ temperatureText: "warm" }), ctx(), { kind: "pull", on: "2026-01-08" })).toMatchObject({ ok: false, fields: { temperature: expect.any(String) } });
+  });
+
+  it("'anything entered' is any finding, action, note, temperature or photo beyond all good", () => {
+    expect(isDraftEntered(allGoodDraft)).toBe(false);
+    expect(isDraftEntered(allGoodDraft, true)).toBe(true);
+    for (const over of [{ moisture: "dry" }, { mould: "spots" }, { sprouts: "many" }, { actions: ["blotted"] }, { note: "x" }, { temperatureText: "4" }] as Partial<CheckDraft>[]) {
+      expect(isDraftEntered(draft(over))).toBe(true);
+    }
+    expect(isDraftEntered(draft({ note: "   " }))).toBe(false);
   });
 });
