@@ -8,6 +8,8 @@ import { loadIdentity } from "@/lib/client/identity";
 import { formatIsoDay } from "@/lib/domain/dates";
 import { formatBagCode } from "@/lib/domain/bag-codes";
 import type { RoundItem } from "@/lib/domain/round";
+import { chooseSheetSteps, sheetStepLabels, type SheetTone } from "@/lib/domain/check-choice";
+import { allGoodFindings } from "@/lib/schemas/check";
 import { buttonClass } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
 import { StateBadge } from "@/components/ui/StateBadge";
@@ -102,25 +104,40 @@ export function TodayRound() {
   );
 }
 
+// Routine work, a decision, work to do now, and trouble each look different (frame, mark and words), from the
+// same rule that picks the check sheet's first step.
+const cardLook: Record<SheetTone, { frame: string; mark: string; text: string }> = {
+  routine: { frame: "border-rime-200", mark: "", text: "text-ink-soft" },
+  decide: { frame: "border-glacier-600 border-l-8", mark: "◐ ", text: "text-glacier-800" },
+  act: { frame: "border-wheat-600 border-l-8", mark: "▲ ", text: "text-wheat-700" },
+  trouble: { frame: "border-ember-600 border-l-8", mark: "✕ ", text: "text-ember-700" },
+  closed: { frame: "border-rime-200", mark: "", text: "text-ink-soft" },
+};
+
 function RoundRow({ item }: { item: RoundItem }) {
-  const urgent = urgentChipKinds.has(chipKindOf(item));
+  const choice = chooseSheetSteps({ state: item.state, findings: allGoodFindings, entered: false, lastCheck: item.bag.lastCheck ?? null });
+  const look = cardLook[choice.tone];
   return (
     <li>
       <Link
         href={`/check?bag=${encodeURIComponent(item.bag.id)}&from=today`}
-        className={`block min-h-tap rounded-card border-2 bg-white p-3 shadow-sm hover:bg-rime-50 ${urgent ? "border-ember-600" : "border-rime-200"}`}
+        className={`block min-h-tap rounded-card border-2 bg-white p-3 shadow-sm hover:bg-rime-50 ${look.frame}`}
         data-testid="round-bag"
+        data-tone={choice.tone}
       >
         <span className="flex items-center justify-between gap-2">
           <span className="font-mono text-title font-bold tracking-wider text-ink">{formatBagCode(item.bag.code)}</span>
           <StateBadge state={item.state} />
         </span>
         <span className="mt-1 block text-body text-ink">{item.bag.species}</span>
-        <span className={`mt-1 block text-label font-semibold ${urgent ? "text-ember-700" : "text-ink-soft"}`}>
-          {urgent ? <span aria-hidden="true">▲ </span> : null}
+        <span className={`mt-1 block text-label font-semibold ${look.text}`}>
+          {look.mark ? <span aria-hidden="true">{look.mark}</span> : null}
           {item.next.note}
           {item.isLate ? ` (due since ${formatShortDay(item.next.on)})` : ""}
         </span>
+        {choice.first.length ? (
+          <span className="mt-1 block text-label text-ink-soft">First: {choice.first.map((s) => sheetStepLabels[s]).join(" or ")}</span>
+        ) : null}
       </Link>
     </li>
   );

@@ -15,7 +15,7 @@ const look: Record<BagState, { cls: string; glyph: string }> = {
 export function StateBadge({ state }: { state: BagState }) {
   const l = look[state];
   return (
-    <span className={`inline-flex items-center gap-1 rounded-full px-2.5 py-0.5 text-label font-semibold ${l.cls}`}>
+    <span className={`inline-flex items-center gap-1 rounded-full px-2.5 py-0.5 text-label font-semibold ${l.cls}`} data-state={state}>
       <span aria-hidden="true">{l.glyph}</span>
       {vocabularyLabels.bagState[state]}
     </span>
