@@ -17,6 +17,7 @@ import { useMember } from "@/components/season/use-member";
 import { useToday } from "@/components/bags/use-farm-rows";
 import { formatShortDay as formatDay, formatStamp } from "@/components/bags/format-day";
 import { buildChartPoints, describeBand, measureBagCold, measureStore } from "./store-metrics";
+import { bandOfStoreKind } from "@/lib/domain/store-rules";
 import { ReadingsChart } from "./ReadingsChart";
 import { ReadingEntry } from "./ReadingForm";
 import { ReadingsImport } from "./ReadingsImport";
@@ -63,8 +64,10 @@ export function StoreView() {
 
   const { store, readings, bags, bagsOfStore, lots, protocols } = data;
   const points = buildChartPoints(readings, unit, sinceMs);
-  const exposure = measureStore(readings, sinceMs);
-  const band = describeBand(unit);
+  // Each kind of store against its own band; a cold frame follows the weather and is not judged.
+  const ownBand = bandOfStoreKind(store.kind);
+  const exposure = ownBand ? measureStore(readings, sinceMs, ownBand) : null;
+  const band = describeBand(unit, ownBand ?? undefined);
   const bagRows = bags
     .map((bag) => {
       const lot = lots.find((l) => l.id === bag.lot_id) ?? null;
@@ -105,6 +108,9 @@ export function StoreView() {
           <Segmented legend="Period" name="readings-period" options={ranges.map((r) => ({ value: r.key, label: r.label }))} value={range} onChange={setRange} />
         </div>
         <ReadingsChart points={points} band={band} unit={unit} excursions={exposure?.excursions ?? []} />
+        {!ownBand && points.length ? (
+          <p className="mt-2 text-label text-ink-soft">A cold frame follows the weather: its frosts and thaws are the treatment, so its readings are not held to a band.</p>
+        ) : null}
         {exposure ? (
           <dl className="mt-3 grid grid-cols-3 gap-2 text-center">
             <Stat label="in the band" value={`${Math.round((100 * exposure.hoursInBand) / Math.max(exposure.totalHours, 1e-9))} %`} />

@@ -5,7 +5,8 @@ import { useState } from "react";
 import Dexie from "dexie";
 import { useLiveQuery } from "dexie-react-hooks";
 import { getLocalDb } from "@/lib/client/db";
-import { defaultEffectiveBand, formatTemperature } from "@/lib/domain";
+import { formatTemperature } from "@/lib/domain";
+import { isOutsideStoreBand } from "@/lib/domain/store-rules";
 import { vocabularyLabels } from "@/lib/schemas/vocabulary";
 import { Button } from "@/components/ui/Button";
 import { Card, PageHeader } from "@/components/ui/Card";
@@ -58,7 +59,7 @@ export function StoresScreen() {
       ) : null}
       <ul className="space-y-3">
         {data?.map(({ store, activeBags, latest }) => {
-          const outside = latest ? latest.temperature_c < defaultEffectiveBand.minC || latest.temperature_c > defaultEffectiveBand.maxC : false;
+          const outside = latest ? isOutsideStoreBand(store.kind, latest.temperature_c) : false;
           return (
             <li key={store.id}>
               <Link href={`/stores/view?id=${store.id}`} className="block rounded-card border border-rime-200 bg-white p-4 shadow-sm hover:border-glacier-500">

@@ -52,11 +52,11 @@ export function describeBand(unit: TemperatureUnit, band: TemperatureBand = defa
   return { band: { min: c(band.minC), max: c(band.maxC) }, optimum: { min: c(optimum.minC), max: c(optimum.maxC) } };
 }
 
-/** The store over the chosen period, against the default band (a store serves many protocols). */
-export function measureStore(readings: readonly ReadingRow[], sinceMs: number | null): ColdExposure | null {
+/** The store over the chosen period, against its own kind's band (a fridge serves many protocols). */
+export function measureStore(readings: readonly ReadingRow[], sinceMs: number | null, band: TemperatureBand = defaultEffectiveBand): ColdExposure | null {
   const all = toTemperatureReadings(readings).filter((r) => sinceMs === null || Date.parse(r.at) >= sinceMs);
   if (all.length === 0) return null;
-  return measureColdExposure(all);
+  return measureColdExposure(all, { band });
 }
 
 export interface BagCold {

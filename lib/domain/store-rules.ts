@@ -1,5 +1,7 @@
 import { DomainError } from "@/lib/errors";
+import type { TemperatureBand } from "@/lib/schemas/protocol";
 import { formatBagCode } from "./bag-codes";
+import { defaultEffectiveBand } from "./protocols";
 
 // When a cold store may be deleted. The phone (before it writes) and the server (before it applies a
 // pushed store.delete) run the same rule, so a store never disappears from under bags still in it.
@@ -45,4 +47,24 @@ export function assertStoreCanBeDeleted(storeName: string, bagsOfStore: readonly
       `Move ${n === 1 ? "it" : "them"} to another cold store first (edit the bag), or record ${n === 1 ? "it" : "them"} pulled, sown or discarded; then the store can be deleted.`,
     { store: `Still holds ${n} bag${n === 1 ? "" : "s"}.` },
   );
+}
+
+/**
+ * The band a store's own readings are judged against, by its kind. A fridge: the product's default cold band
+ * (0–10 °C, REFERENCES: stratification tables). A freezer is its own treatment, meant to sit at −18 °C (US FDA
+ * food-safety guidance); a few degrees either side from door openings and defrost cycles are normal (common
+ * practice), so −25 to −12 °C reads as in band. A cold frame follows the weather, so no band is applied.
+ */
+export function bandOfStoreKind(kind: "fridge" | "freezer" | "cold_frame"): TemperatureBand | null {
+  if (kind === "freezer") return freezerBand;
+  if (kind === "cold_frame") return null;
+  return defaultEffectiveBand;
+}
+
+export const freezerBand: TemperatureBand = { minC: -25, maxC: -12 };
+
+/** Whether a reading lies outside its store's band (never, for a store with no band). */
+export function isOutsideStoreBand(kind: "fridge" | "freezer" | "cold_frame", temperatureC: number): boolean {
+  const band = bandOfStoreKind(kind);
+  return band !== null && (temperatureC < band.minC || temperatureC > band.maxC);
 }

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { DomainError } from "@/lib/errors";
-import { assertStoreCanBeDeleted, findBagsStillInStore, isBagStillInStore, listBagCodes, type BagPlace } from "@/lib/domain/store-rules";
+import { assertStoreCanBeDeleted, bandOfStoreKind, findBagsStillInStore, isBagStillInStore, isOutsideStoreBand, listBagCodes, type BagPlace } from "@/lib/domain/store-rules";
 
 // When a cold store may be deleted: the rule the phone and the server both run. The bag states follow
 // PRODUCT.md (planned → chilling → window open → pulled → sown; or discarded); the rule itself is Rimebook's own.
@@ -60,5 +60,28 @@ describe("assertStoreCanBeDeleted", () => {
     expect(thrown).toBeInstanceOf(DomainError);
     expect((thrown as DomainError).message).toMatch(message);
     expect((thrown as DomainError).status).toBe(422);
+  });
+});
+
+describe("each store against its own band", () => {
+  // US FDA food-safety guidance: fridge at or below 4 °C, freezer at −18 °C (0 °F); the product's default cold
+  // band is 0–10 °C (REFERENCES: stratification tables). The freezer's −25 to −12 °C allowance is common practice.
+  it.each([
+    ["fridge", 3, false],
+    ["fridge", 12, true],
+    ["fridge", -1, true],
+    ["freezer", -18.8, false], // a chest freezer where it should be: in band, not red
+    ["freezer", -18, false],
+    ["freezer", -5, true], // thawing
+    ["cold_frame", -9, false], // the weather is the treatment
+    ["cold_frame", 14, false],
+  ] as const)("%s at %d °C: outside = %s", (kind, c, outside) => {
+    expect(isOutsideStoreBand(kind, c)).toBe(outside);
+  });
+
+  it("a cold frame has no band; a freezer's is below zero", () => {
+    expect(bandOfStoreKind("cold_frame")).toBeNull();
+    expect(bandOfStoreKind("freezer")!.maxC).toBeLessThan(0);
+    expect(bandOfStoreKind("fridge")).toEqual({ minC: 0, maxC: 10 });
   });
 });
