@@ -67,7 +67,7 @@ export function StoreView() {
   // Each kind of store against its own band; a cold frame follows the weather and is not judged.
   const ownBand = bandOfStoreKind(store.kind);
   const exposure = ownBand ? measureStore(readings, sinceMs, ownBand) : null;
-  const band = describeBand(unit, ownBand ?? undefined);
+  const band = ownBand ? describeBand(unit, ownBand) : null;
   const bagRows = bags
     .map((bag) => {
       const lot = lots.find((l) => l.id === bag.lot_id) ?? null;
@@ -155,7 +155,9 @@ export function StoreView() {
 
       <Card>
         <h2 className="mb-2 text-body font-bold text-glacier-800">Excursions</h2>
-        {!exposure || exposure.excursions.length === 0 ? (
+        {!band ? (
+          <p className="text-label text-ink-soft">Not judged: a cold frame has no band.</p>
+        ) : !exposure || exposure.excursions.length === 0 ? (
           <p className="text-label text-ink-soft">None in this period: every reading was inside {band.band.min}–{band.band.max} °{unit}.</p>
         ) : (
           <ul className="space-y-2">
