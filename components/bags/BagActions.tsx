@@ -63,7 +63,8 @@ export function BagActions({ bag, state, stores, today, can }: { bag: Bag; state
           </Link>
         ) : null}
         {can.pull && cold ? (
-          <Button tone="good" aria-expanded={panel === "pull"} onClick={() => open("pull")}>
+          // Solid only once the window is open; before that pulling is possible but not the suggested step.
+          <Button tone={state === "chilling" ? "secondary" : "good"} aria-expanded={panel === "pull"} onClick={() => open("pull")}>
             Pull
           </Button>
         ) : null}
@@ -78,7 +79,7 @@ export function BagActions({ bag, state, stores, today, can }: { bag: Bag; state
           </Button>
         ) : null}
         {can.discard && !finished ? (
-          <Button tone="quiet" aria-expanded={panel === "discard"} onClick={() => open("discard")} className="text-ember-700">
+          <Button tone="danger-outline" aria-expanded={panel === "discard"} onClick={() => open("discard")}>
             Discard
           </Button>
         ) : null}
