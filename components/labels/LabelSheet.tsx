@@ -1,7 +1,7 @@
 "use client";
 
 import { useSearchParams } from "next/navigation";
-import { useMemo, useState } from "react";
+import { useEffect, useLayoutEffect, useMemo, useRef, useState } from "react";
 import { useLiveQuery } from "dexie-react-hooks";
 import { buildBagRows, type BagRow } from "@/lib/domain/rows/bag-rows";
 import { Button } from "@/components/ui/Button";
@@ -18,6 +18,8 @@ import { a4Grid, buildLabels, drawQr, labelledStates, labelSizes, pageLabels, ty
 
 /** Seed, not food: the line every label with room carries, because the label stays with the bag in a shared fridge. */
 const labelCaution = "Seed, not food. Keep sealed, away from children.";
+/** The smallest type any label line may use (8 pt): below it a pencilled note or a warning is hard to read. */
+const minimumPt = 8;
 
 export function LabelSheet() {
   const params = useSearchParams();
@@ -40,6 +42,40 @@ export function LabelSheet() {
   const selectedRows = candidates.filter((r) => chosen.has(r.id));
   const origin = typeof window === "undefined" ? "" : window.location.origin;
   const labels = useMemo(() => (farm ? buildLabels(selectedRows, farm, origin) : []), [farm, selectedRows, origin]);
+
+  // Each label is fitted in the preview, which is drawn at the real size: it first leaves out the start line, then
+  // the lot, then uses smaller type (never under 8 pt). A label that still does not fit is named and not printed.
+  const sheetRef = useRef<HTMLDivElement>(null);
+  const [fits, setFits] = useState<Record<string, FitStep>>({});
+  const [unfit, setUnfit] = useState<string[]>([]);
+  const [fontsReady, setFontsReady] = useState(false);
+  const fitKey = `${size}|${labels.map((l) => `${l.id}:${l.windowText}:${l.species}:${l.commonName}:${l.whereText}:${l.lotText}`).join("|")}|${fontsReady}`;
+  useEffect(() => {
+    void document.fonts?.ready.then(() => setFontsReady(true));
+  }, []);
+  useEffect(() => {
+    setFits({});
+    setUnfit([]);
+  }, [fitKey]);
+  useLayoutEffect(() => {
+    const root = sheetRef.current;
+    if (!root) return;
+    const next = { ...fits };
+    const tooBig: string[] = [];
+    let changed = false;
+    for (const el of root.querySelectorAll<HTMLElement>(".bag-label")) {
+      const id = el.dataset.id ?? "";
+      if (!overflows(el)) continue;
+      const at = fitSteps.indexOf(next[id] ?? "full");
+      if (at < fitSteps.length - 1) {
+        next[id] = fitSteps[at + 1];
+        changed = true;
+      } else tooBig.push(id);
+    }
+    if (changed) setFits(next);
+    else if (tooBig.join() !== unfit.join()) setUnfit(tooBig);
+  });
+  const unfitLabels = labels.filter((l) => unfit.includes(l.id));
 
   function toggle(id: string) {
     const next = new Set(chosen);
@@ -81,9 +117,22 @@ export function LabelSheet() {
               ? `Print at 100 % (“actual size”), no margins; 21 labels per A4 sheet (top margin ${a4Grid.topMm} mm, left ${a4Grid.leftMm} mm).`
               : "Print at 100 % (“actual size”) to a label printer; one label per page."}
           </p>
-          <Button size="lg" className="w-full" disabled={labels.length === 0} onClick={() => window.print()}>
-            Print {labels.length} {labels.length === 1 ? "label" : "labels"}
-          </Button>
+          {unfitLabels.length ? (
+            <div role="alert" className="rounded-card border-l-4 border-ember-600 bg-ember-100 p-3 text-label" data-testid="labels-unfit">
+              <p className="font-semibold">
+                {unfitLabels.length === 1 ? "This label does not fit" : `${unfitLabels.length} labels do not fit`} on {labelSizes[size].name.split(" (")[0]} without cutting words or going under {minimumPt} pt:
+              </p>
+              <p>{unfitLabels.map((l) => `${l.codeShown} (${l.commonName || l.species})`).join(", ")}</p>
+              <p>Choose a larger label size, or untick {unfitLabels.length === 1 ? "it" : "them"} to print the rest.</p>
+            </div>
+          ) : null}
+          {labels.length ? (
+            <Button size="lg" className="w-full" disabled={unfitLabels.length > 0} onClick={() => window.print()}>
+              Print {labels.length} {labels.length === 1 ? "label" : "labels"}
+            </Button>
+          ) : (
+            <p className="text-label text-ink-soft">Tick at least one bag below to print its label.</p>
+          )}
         </Card>
         <p className="rounded-card border-l-4 border-wheat-600 bg-wheat-100 p-3 text-label">
           <strong>On every label:</strong> “{labelCaution}” ({cautionTexts.foodFridge}) Toxic and treated seed is marked on the label itself, because the label stays with the bag in a shared fridge.
@@ -110,11 +159,11 @@ export function LabelSheet() {
       </div>
 
       <div className="overflow-x-auto">
-        <div className="label-print" data-testid="label-sheet">
+        <div className="label-print" data-testid="label-sheet" ref={sheetRef}>
           {pageLabels(labels, size).map((page, i) => (
             <div key={i} className={`label-page label-page-${size}`}>
               {page.map((l) => (
-                <BagLabel key={l.id} label={l} size={size} />
+                <BagLabel key={l.id} label={l} size={size} fit={fits[l.id] ?? "full"} />
               ))}
             </div>
           ))}
@@ -147,26 +196,52 @@ function QrSvg({ text, className }: { text: string; className: string }) {
   );
 }
 
-function BagLabel({ label, size }: { label: LabelData; size: LabelSize }) {
+/** How much a label gives up to fit, step by step: nothing, then the start line, then the lot, then a smaller type. */
+export const fitSteps = ["full", "no-start", "no-lot", "small-type"] as const;
+export type FitStep = (typeof fitSteps)[number];
+
+/** Pencil boxes for checks when the phone is not at hand: a tick and a date, on labels with room. */
+const tickBoxes: Record<LabelSize, number> = { small: 0, a4: 5, large: 6 };
+
+function BagLabel({ label, size, fit }: { label: LabelData; size: LabelSize; fit: FitStep }) {
   const mark = label.treated ? "⚠ TREATED SEED" : label.toxic ? "⚠ TOXIC SEED" : null;
+  const step = fitSteps.indexOf(fit);
+  const name = size === "small" ? label.commonName || label.species : label.species;
   return (
-    <article className={`bag-label bag-label-${size}`} data-code={label.code} aria-label={`Label for bag ${label.codeShown}`}>
+    <article className={`bag-label bag-label-${size} ${fit === "small-type" ? "bag-label-smaller" : ""}`} data-id={label.id} data-code={label.code} data-fit={fit} aria-label={`Label for bag ${label.codeShown}`}>
       <QrSvg text={label.payload} className="bag-label-qr" />
       <div className="bag-label-text">
         <p className="bag-label-code">{label.codeShown}</p>
+        <p className="bag-label-window">{label.windowText}</p>
         <p className="bag-label-species">
-          {size === "small" ? label.commonName || label.species : label.species}
+          {name}
           {size !== "small" && label.commonName ? <span className="bag-label-common"> · {label.commonName}</span> : null}
         </p>
-        {size !== "small" && label.lotText ? <p className="bag-label-line">Lot: {label.lotText}</p> : null}
-        {size !== "small" ? <p className="bag-label-line">{label.startText}</p> : null}
-        <p className="bag-label-line bag-label-window">{label.windowText}</p>
-        {size === "large" && label.whereText ? <p className="bag-label-line">{label.whereText}</p> : null}
+        {label.whereText ? <p className="bag-label-line">{label.whereText}</p> : null}
+        {size !== "small" && label.lotText && step < 2 ? <p className="bag-label-line">Lot: {label.lotText}</p> : null}
+        {size !== "small" && step < 1 ? <p className="bag-label-line">{label.startText}</p> : null}
         {mark ? <p className="bag-label-mark">{mark}</p> : null}
-        {size !== "small" ? <p className="bag-label-caution">{labelCaution}</p> : null}
+        {size !== "small" ? <p className="bag-label-caution">{size === "large" ? labelCaution : "Seed, not food."}</p> : null}
       </div>
+      {tickBoxes[size] ? (
+        <div className="bag-label-ticks" aria-hidden="true">
+          {Array.from({ length: tickBoxes[size] }, (_, i) => (
+            <span key={i} className="bag-label-tick">
+              <span className="bag-label-box" />
+              <span className="bag-label-date">__/__</span>
+            </span>
+          ))}
+        </div>
+      ) : null}
     </article>
   );
+}
+
+/** True when a label's words spill past its edges (the preview is drawn at the real size, so paper does the same). */
+function overflows(label: HTMLElement): boolean {
+  const text = label.querySelector<HTMLElement>(".bag-label-text");
+  const spill = (el: HTMLElement) => el.scrollHeight > el.clientHeight + 1 || el.scrollWidth > el.clientWidth + 1;
+  return spill(label) || (text !== null && spill(text));
 }
 
 /** Page and label geometry per size. Real units (in, mm) so the printout matches the stock. */
@@ -182,19 +257,25 @@ function printCss(size: LabelSize): string {
 .label-page-a4 { width: 210mm; min-height: 297mm; box-sizing: border-box; padding: ${a4Grid.topMm}mm 0 0 ${a4Grid.leftMm}mm;
   display: grid; grid-template-columns: repeat(${a4Grid.columns}, ${s.widthMm}mm); grid-auto-rows: ${s.heightMm}mm; column-gap: ${a4Grid.columnGapMm}mm; align-content: start; }
 .label-page-small, .label-page-large { width: ${s.widthMm}mm; height: ${s.heightMm}mm; margin-bottom: 4mm; }
-.bag-label { width: ${s.widthMm}mm; height: ${s.heightMm}mm; box-sizing: border-box; overflow: hidden; display: flex; gap: 1.5mm; align-items: center;
+.bag-label { width: ${s.widthMm}mm; height: ${s.heightMm}mm; box-sizing: border-box; overflow: hidden; display: grid;
+  grid-template-columns: auto minmax(0, 1fr); grid-template-rows: ${size === "small" ? "minmax(0, 1fr)" : "minmax(0, 1fr) auto"}; column-gap: 1.5mm; row-gap: 0.8mm; align-items: start;
   padding: ${size === "small" ? "1mm" : "2mm"}; break-inside: avoid; page-break-inside: avoid; outline: 1px dashed #a9c3cf; outline-offset: -1px; }
-.bag-label-qr { flex: none; height: ${size === "a4" ? "78%" : "100%"}; width: auto; aspect-ratio: 1; }
-.bag-label-text { min-width: 0; flex: 1; line-height: 1.15; }
-.bag-label-code { font-family: ui-monospace, "SFMono-Regular", Menlo, Consolas, monospace; font-weight: 800; letter-spacing: 0.04em;
+.bag-label-qr { height: ${size === "large" ? "38mm" : size === "a4" ? "26mm" : "23.4mm"}; width: ${size === "large" ? "38mm" : size === "a4" ? "26mm" : "23.4mm"}; }
+.bag-label-text { min-width: 0; height: 100%; overflow: hidden; line-height: 1.12; overflow-wrap: anywhere; }
+.bag-label-code { font-family: ui-monospace, "SFMono-Regular", Menlo, Consolas, monospace; font-weight: 800; letter-spacing: 0.03em;
   font-size: ${size === "large" ? "24pt" : size === "a4" ? "13pt" : "11pt"}; white-space: nowrap; }
-.bag-label-species { font-weight: 700; font-size: ${size === "large" ? "11pt" : "7.5pt"}; overflow: hidden; text-overflow: ellipsis; white-space: nowrap; }
-.bag-label-species { font-style: normal; }
+.bag-label-window { font-weight: 800; font-size: ${size === "large" ? "15pt" : size === "a4" ? "10pt" : "9pt"}; }
+.bag-label-species { font-weight: 700; font-size: ${size === "large" ? "11pt" : size === "a4" ? "8.5pt" : "8pt"}; }
 .bag-label-common { font-weight: 500; }
-.bag-label-line { font-size: ${size === "large" ? "9pt" : "6.5pt"}; white-space: nowrap; overflow: hidden; text-overflow: ellipsis; }
-.bag-label-window { font-weight: 700; }
-.bag-label-mark { font-size: ${size === "large" ? "9pt" : "6.5pt"}; font-weight: 800; border: 0.3mm solid #000; display: inline-block; padding: 0 0.8mm; margin-top: 0.5mm; }
-.bag-label-caution { font-size: ${size === "large" ? "7pt" : "5.5pt"}; margin-top: 0.5mm; }
+.bag-label-line { font-size: ${size === "large" ? "9pt" : size === "a4" ? "8pt" : "8pt"}; }
+.bag-label-mark { font-size: ${size === "large" ? "9pt" : size === "a4" ? "8pt" : "8pt"}; font-weight: 800; border: 0.3mm solid #000; display: inline-block; padding: 0 0.8mm; margin-top: 0.3mm; }
+.bag-label-caution { font-size: 8pt; margin-top: 0.3mm; }
+.bag-label-smaller .bag-label-code { font-size: ${size === "large" ? "18pt" : size === "a4" ? "11pt" : "10pt"}; }
+.bag-label-smaller .bag-label-window, .bag-label-smaller .bag-label-species, .bag-label-smaller .bag-label-line { font-size: 8pt; }
+.bag-label-ticks { grid-column: 1 / -1; display: flex; justify-content: space-between; font-size: 8pt; line-height: 1; }
+.bag-label-tick { display: inline-flex; align-items: center; gap: 0.6mm; }
+.bag-label-box { display: inline-block; width: 2.8mm; height: 2.8mm; border: 0.3mm solid #000; }
+.bag-label-date { color: #333; }
 @media print {
   ${page}
   body * { visibility: hidden; }
