@@ -21,8 +21,8 @@ const columns = [
     header: "Arm",
     cell: ({ row: { original: r } }) => (
       <span className="font-semibold">
-        {r.isBest ? <span aria-label="best so far">★ </span> : null}
         {r.arm.arm.label}
+        {r.isBest ? <span className="block text-label font-medium text-ink-soft">most came up</span> : null}
       </span>
     ),
   }),

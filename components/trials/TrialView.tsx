@@ -147,7 +147,8 @@ export function TrialView() {
         ) : (
           table.comparisons.map((c) => (
             <div key={c.armId} className={`rounded-xl border-l-4 p-3 ${verdictLook[c.verdict.kind]}`}>
-              <p className="text-body font-semibold text-ink">{c.verdict.text}</p>
+              <p className="text-body font-semibold text-ink">{c.verdict.headline}</p>
+              <p className="mt-1 text-label text-ink-soft">{c.verdict.numbers}</p>
               <ul className="mt-1 list-disc pl-5 text-label text-ink-soft">
                 {c.verdict.cautions.map((x) => (
                   <li key={x}>{x}</li>

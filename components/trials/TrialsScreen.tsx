@@ -11,7 +11,6 @@ import { useMember } from "@/components/season/use-member";
 import { assembleTrialTable } from "./trial-table";
 import { NewTrialForm } from "./TrialForm";
 
-const verdictWords = { clear_difference: "Clear difference", hint: "A hint, not yet clear", no_clear_difference: "No clear difference" } as const;
 
 export function TrialsScreen() {
   const { can } = useMember();
@@ -63,9 +62,8 @@ export function TrialsScreen() {
                 <p className="text-label text-ink-soft">
                   {lot?.species ?? "No lot"} · {arms.length} arms: {arms.map((a) => a.label).join(" · ")}
                 </p>
-                <p className={`mt-2 inline-block rounded-full px-3 py-1 text-label font-semibold ${first?.kind === "clear_difference" ? "bg-moss-100 text-moss-700" : "bg-rime-100 text-ink"}`}>
-                  {first ? verdictWords[first.kind] : "Waiting for counts"}
-                  {table.winner ? ` · ${table.winner.arm.label} ahead` : ""}
+                <p className={`mt-2 border-l-4 pl-2 text-label font-semibold ${first?.kind === "clear_difference" ? "border-moss-600 text-moss-700" : "border-rime-300 text-ink"}`}>
+                  {first ? first.headline : "Waiting for counts"}
                 </p>
               </Link>
             </li>

@@ -148,7 +148,11 @@ export interface TrialArm {
 }
 
 export interface TrialVerdict {
-  /** One plain sentence; never claims more than the numbers allow. */
+  /** What a grower would say about it, in one sentence; never claims more than the numbers allow. */
+  headline: string;
+  /** The numbers beneath: rates, the difference with its interval, Fisher's p. */
+  numbers: string;
+  /** Both together. */
   text: string;
   kind: "clear_difference" | "hint" | "no_clear_difference";
   better: TrialArm;
@@ -180,23 +184,25 @@ export function describeTrialVerdict(armA: TrialArm, armB: TrialArm): TrialVerdi
   ]);
   const pts = formatPoints(difference.difference);
   const range = `95 % interval ${formatPoints(difference.lower)} to ${formatPoints(difference.upper)} points`;
-  const rates = `${formatPercent(better.germinated, better.sown)} vs ${formatPercent(other.germinated, other.sown)}`;
+  const rates = `${better.name} ${formatPercent(better.germinated, better.sown)}, ${other.name} ${formatPercent(other.germinated, other.sown)}`;
+  const numbers = `${rates}: ${pts} points apart (${range}; Fisher's exact p = ${fisher.pTwoSided < 0.001 ? "< 0.001" : fisher.pTwoSided.toFixed(3)}).`;
   let kind: TrialVerdict["kind"];
-  let text: string;
+  let headline: string;
   if (difference.lower > 0 && fisher.pTwoSided < 0.05) {
     kind = "clear_difference";
-    text = `${better.name} germinated ${pts} points better than ${other.name} (${rates}; ${range}); unlikely to be chance.`;
+    headline = `The ${better.name} bags came up better, and the difference is likely real.`;
   } else if (difference.lower > 0) {
     kind = "hint";
-    text = `${better.name} germinated ${pts} points better than ${other.name} (${rates}; ${range}), but the exact test cannot rule out chance (p = ${fisher.pTwoSided.toFixed(2)}); repeat with more seed.`;
+    headline = `The ${better.name} bags came up better, but it could still be chance: repeat with more seed.`;
   } else {
     kind = "no_clear_difference";
-    text =
+    headline =
       difference.difference === 0
-        ? `No clear difference: both germinated ${rates.split(" vs ")[0]} (${range}).`
-        : `No clear difference: ${better.name} germinated ${pts} points better than ${other.name} (${rates}; ${range}); this could be chance.`;
+        ? `Both came up the same (${formatPercent(better.germinated, better.sown)}).`
+        : `The ${better.name} bags came up a little better, but that could easily be chance.`;
   }
+  const text = `${headline} ${numbers}`;
   const cautions = ["One trial on one lot: repeat it before changing the protocol."];
   if (Math.min(better.sown, other.sown) < 30) cautions.push("Fewer than 30 seeds in an arm: the interval is wide.");
-  return { text, kind, better, other, difference, fisher, cautions };
+  return { headline, numbers, text, kind, better, other, difference, fisher, cautions };
 }

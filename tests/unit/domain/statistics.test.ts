@@ -174,19 +174,19 @@ describe("trial verdict in plain words (never overstates)", () => {
       { name: "Freezer arm", germinated: 56, sown: 70 },
       { name: "Fridge arm", germinated: 48, sown: 80 },
       "clear_difference",
-      /^Freezer arm germinated 20 points better than Fridge arm \(80 % vs 60 %; 95 % interval 5 to 33 points\); unlikely to be chance\.$/,
+      /^The Freezer arm bags came up better, and the difference is likely real\. Freezer arm 80 %, Fridge arm 60 %: 20 points apart \(95 % interval 5 to 33 points; Fisher's exact p = 0\.0\d+\)\.$/,
     ],
     [
       { name: "Towel", germinated: 12, sown: 20 },
       { name: "Sand", germinated: 10, sown: 20 },
       "no_clear_difference",
-      /^No clear difference: Towel germinated 10 points better than Sand .*−\d+ to \d+ points\); this could be chance\.$/,
+      /^The Towel bags came up a little better, but that could easily be chance\. Towel 60 %, Sand 50 %: 10 points apart \(95 % interval −\d+ to \d+ points; Fisher's exact p = [\d.]+\)\.$/,
     ],
     [
       { name: "30 days", germinated: 10, sown: 20 },
       { name: "60 days", germinated: 10, sown: 20 },
       "no_clear_difference",
-      /^No clear difference: both germinated 50 %/,
+      /^Both came up the same \(50 %\)\./,
     ],
   ] as const)("%o vs %o → %s", (a, b, kind, pattern) => {
     const v = describeTrialVerdict(a, b);
@@ -201,16 +201,16 @@ describe("trial verdict in plain words (never overstates)", () => {
     expect(v.difference.lower).toBeCloseTo(0.0524, 4); // Newcombe 1998b
   });
 
-  it("says 'unlikely to be chance' only when the interval excludes 0 and Fisher's two-sided p < 0.05 (property)", () => {
+  it("says 'likely real' only when the interval excludes 0 and Fisher's two-sided p < 0.05 (property)", () => {
     const arm = fc.integer({ min: 1, max: 120 }).chain((n) => fc.record({ germinated: fc.integer({ min: 0, max: n }), sown: fc.constant(n) }));
     fc.assert(
       fc.property(arm, arm, (a, b) => {
         const v = describeTrialVerdict({ name: "A", ...a }, { name: "B", ...b });
-        if (v.text.includes("unlikely to be chance")) {
+        if (v.headline.includes("likely real")) {
           expect(v.difference.lower).toBeGreaterThan(0);
           expect(v.fisher.pTwoSided).toBeLessThan(0.05);
         }
-        if (v.difference.lower <= 0) expect(v.text).toMatch(/^No clear difference/);
+        if (v.difference.lower <= 0) expect(v.headline).toMatch(/chance|the same/);
       }),
     );
   });
