@@ -77,3 +77,11 @@ export function pickEarlierDay(a: IsoDay, b: IsoDay): IsoDay {
 export function pickLaterDay(a: IsoDay, b: IsoDay): IsoDay {
   return a >= b ? a : b;
 }
+
+const monthWords = ["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"];
+
+/** "2024-03-06" → "6 Mar 2024": how a day is written in any sentence a grower reads. */
+export function formatDayInWords(day: IsoDay): string {
+  const [y, m, d] = day.split("-").map(Number);
+  return `${d} ${monthWords[m - 1]} ${y}`;
+}

@@ -1,5 +1,5 @@
 import { DomainError } from "@/lib/errors";
-import { addDaysToIsoDay, parseIsoDay, type IsoDay } from "./dates";
+import { addDaysToIsoDay, formatDayInWords, parseIsoDay, type IsoDay } from "./dates";
 import { reconcileProtocol, type ReconciledProtocol } from "./protocols";
 import type { ProtocolForPlan } from "./schedule";
 import type { PhaseKind } from "@/lib/schemas/vocabulary";
@@ -115,10 +115,10 @@ export function planSeason(input: SeasonPlanInput): SeasonPlan {
   const warnings: PlanWarning[] = [];
   const startBy = phases[0]?.startBy ?? null;
   if (!reconciled.needsCold) warnings.push({ code: "no_cold_needed", message: "This species needs no cold treatment: sow it directly." });
-  if (sowOn < input.today) warnings.push({ code: "sow_date_passed", message: `The sowing date ${sowOn} has passed.` });
+  if (sowOn < input.today) warnings.push({ code: "sow_date_passed", message: `The sowing date ${formatDayInWords(sowOn)} has passed.` });
   for (const p of phases) {
     if (p.startBy < input.today) {
-      warnings.push({ code: "start_by_passed", message: `The ${p.kind.replace("_", "-")} phase should have started by ${p.startBy}; starting now, the seed will be ready after the sowing date.` });
+      warnings.push({ code: "start_by_passed", message: `The ${p.kind.replace("_", "-")} phase should have started by ${formatDayInWords(p.startBy)}; starting now, the seed will be ready after the sowing date.` });
     }
   }
   if (reconciled.sourcesDisagree) {

@@ -1,7 +1,7 @@
 import { afterAll, describe, expect, it } from "vitest";
 import fc from "fast-check";
 import { Temporal } from "@js-temporal/polyfill";
-import { addDaysToIsoDay, clearDayArithmeticCache, compareIsoDays, countDaysBetween, isIsoDay, parseIsoDay } from "@/lib/domain";
+import { addDaysToIsoDay, clearDayArithmeticCache, compareIsoDays, countDaysBetween, formatDayInWords, isIsoDay, parseIsoDay } from "@/lib/domain";
 
 // Calendar arithmetic must not depend on the device's time zone or its daylight-saving changes.
 const zones = ["UTC", "America/New_York", "Europe/London", "Australia/Sydney", "America/Santiago", "Asia/Kolkata", "Australia/Lord_Howe"];
@@ -61,5 +61,15 @@ describe("day strings", () => {
         expect(Math.sign(compareIsoDays(a, b))).toBe(Math.sign(Temporal.PlainDate.compare(a, b)));
       }),
     );
+  });
+});
+
+describe("days in words", () => {
+  it.each([
+    ["2024-03-06", "6 Mar 2024"],
+    ["2026-11-09", "9 Nov 2026"],
+    ["2025-12-31", "31 Dec 2025"],
+  ])("%s reads %s", (day, words) => {
+    expect(formatDayInWords(day)).toBe(words);
   });
 });
