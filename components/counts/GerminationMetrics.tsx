@@ -27,6 +27,7 @@ export function GerminationMetrics({ summary }: { summary: SowingSummary }) {
   }
   if (!metrics || !interval) return <p className="text-label text-ink-soft">Metrics appear after the first count.</p>;
   return (
+    <div className="space-y-2">
     <dl className="grid grid-cols-1 gap-2 sm:grid-cols-2">
       <div className="rounded-xl bg-moss-100 p-3 sm:col-span-2">
         <dt className="text-label font-semibold text-ink">{metrics.germinationPercent.label}</dt>
@@ -42,11 +43,12 @@ export function GerminationMetrics({ summary }: { summary: SowingSummary }) {
       <Metric v={metrics.t50Coolbear} unit="days" />
       <Metric v={metrics.maguireSpeed} unit="seeds/day" digits={2} />
       <Metric v={metrics.coefficientOfVelocity} digits={1} />
+    </dl>
       {metrics.firstDay !== null ? (
-        <p className="text-label text-ink-soft sm:col-span-2">
+        <p className="text-label text-ink-soft">
           First seedlings on day {metrics.firstDay}; most on day {metrics.peakDays.join(", ")}; last new ones on day {metrics.lastDay}.
         </p>
       ) : null}
-    </dl>
+    </div>
   );
 }

@@ -158,7 +158,8 @@ export function LabelSheet() {
         <h2 className="text-title font-bold text-glacier-800">Preview</h2>
       </div>
 
-      <div className="overflow-x-auto">
+      {/* Focusable so a keyboard can scroll the real-size preview sideways. */}
+      <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Label preview at real size">
         <div className="label-print" data-testid="label-sheet" ref={sheetRef}>
           {pageLabels(labels, size).map((page, i) => (
             <div key={i} className={`label-page label-page-${size}`}>
@@ -271,7 +272,8 @@ function printCss(size: LabelSize): string {
 .bag-label-mark { font-size: ${size === "large" ? "9pt" : size === "a4" ? "8pt" : "8pt"}; font-weight: 800; border: 0.3mm solid #000; display: inline-block; padding: 0 0.8mm; margin-top: 0.3mm; }
 .bag-label-caution { font-size: 8pt; margin-top: 0.3mm; }
 .bag-label-smaller .bag-label-code { font-size: ${size === "large" ? "18pt" : size === "a4" ? "11pt" : "10pt"}; }
-.bag-label-smaller .bag-label-window, .bag-label-smaller .bag-label-species, .bag-label-smaller .bag-label-line { font-size: 8pt; }
+.bag-label-smaller .bag-label-window { font-size: ${size === "large" ? "11pt" : "8pt"}; }
+.bag-label-smaller .bag-label-species, .bag-label-smaller .bag-label-line, .bag-label-smaller .bag-label-mark { font-size: ${size === "large" ? "9pt" : "8pt"}; }
 .bag-label-ticks { grid-column: 1 / -1; display: flex; justify-content: space-between; font-size: 8pt; line-height: 1; }
 .bag-label-tick { display: inline-flex; align-items: center; gap: 0.6mm; }
 .bag-label-box { display: inline-block; width: 2.8mm; height: 2.8mm; border: 0.3mm solid #000; }

@@ -220,8 +220,11 @@ function PlanRowCard({
           </div>
           {plan.phases.map((p) => (
             <div key={`${p.kind}-${p.startBy}`} className="col-span-2 text-label text-ink">
-              {vocabularyLabels.phaseKind[p.kind]}: start by {formatLongDay(p.startBy)}
-              {p.startFrom && p.startFrom < p.startBy ? ` (not before ${formatLongDay(p.startFrom)})` : ""}
+              <dt className="inline">{vocabularyLabels.phaseKind[p.kind]}: </dt>
+              <dd className="inline">
+                start by {formatLongDay(p.startBy)}
+                {p.startFrom && p.startFrom < p.startBy ? ` (not before ${formatLongDay(p.startFrom)})` : ""}
+              </dd>
             </div>
           ))}
           <div className="col-span-2 rounded-xl bg-rime-50 p-2">

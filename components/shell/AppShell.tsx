@@ -50,9 +50,10 @@ export function AppShell({ children }: { children: React.ReactNode }) {
     <div className="min-h-dvh pb-24">
       <header className="no-print sticky top-0 z-30 border-b border-rime-200 bg-rime-50/95 backdrop-blur">
         <div className="mx-auto flex max-w-xl items-center justify-between gap-3 px-4 py-2">
-          <Link href="/today" className="flex min-h-tap min-w-0 items-center gap-2" aria-label="Rimebook: today's round">
+          <Link href="/today" className="flex min-h-tap min-w-0 items-center gap-2">
             <RimeMark className="h-8 w-8 shrink-0" />
             <span className="truncate font-semibold text-glacier-800">{identity?.farm.name ?? "Rimebook"}</span>
+            <span className="sr-only">: today&apos;s round</span>
           </Link>
           <SyncPill />
         </div>
