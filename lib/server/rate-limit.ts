@@ -36,7 +36,12 @@ let warnedUnknown = false;
  * (and TRUST_PROXY), or null when the app is served without it: never a header the caller wrote.
  */
 export function clientAddress(req: Request): string | null {
-  const address = (globalThis as Record<symbol, unknown>)[FRONT_DOOR] ? req.headers.get(CLIENT_HEADER) : null;
+  return addressFromHeaders(req.headers);
+}
+
+/** clientAddress for a page (next/headers). */
+export function addressFromHeaders(headers: { get(name: string): string | null }): string | null {
+  const address = (globalThis as Record<symbol, unknown>)[FRONT_DOOR] ? headers.get(CLIENT_HEADER) : null;
   if (address) return address.slice(0, 64);
   if (!warnedUnknown) {
     warnedUnknown = true;
