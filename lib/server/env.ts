@@ -29,7 +29,9 @@ const EnvSchema = z
     return {
       ...env,
       SESSION_SECRET: env.SESSION_SECRET ?? "rimebook-development-secret-not-for-production-use",
-      CRON_SECRET: env.CRON_SECRET ?? "rimebook-development-cron",
+      // Production without a secret: the digest route is switched off (null), never opened by a known value.
+      // `npm run demo` makes its own secret in data/.cron-secret.
+      CRON_SECRET: env.CRON_SECRET ?? (production ? null : "rimebook-development-cron"),
       secureCookies: env.APP_ORIGIN.startsWith("https://"),
       mailboxPage: env.MAILBOX_PAGE === "on",
       mailboxRemote: env.MAILBOX_PAGE_REMOTE === "on",
