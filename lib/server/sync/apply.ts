@@ -9,7 +9,7 @@ import { assertStoreCanBeDeleted } from "@/lib/domain/store-rules";
 import { effectsOf, rowReferences, sameValue, type Effect, type EffectTable, type RowValues } from "@/lib/schemas/mutation-effects";
 import type { ProtocolPhase } from "@/lib/schemas/protocol";
 import { vocabularyLabels, type Role } from "@/lib/schemas/vocabulary";
-import { fieldsOf } from "@/lib/server/http";
+import { assertWellFormedText, fieldsOf } from "@/lib/server/http";
 import { nextSeq } from "@/lib/server/seq";
 import { auditText, parseRow, serializeRow } from "./rows";
 
@@ -83,6 +83,7 @@ async function applyOne(db: Knex.Transaction, member: PushMember, deviceId: stri
 
   let error: RejectedMutation["error"];
   try {
+    assertWellFormedText(m.args); // half an emoji refuses this mutation alone (the push skips the check)
     const args = mutationTable[m.name].args.parse(m.args);
     if (!canRun(member.role, m.name)) {
       throw new AppError("forbidden", `A ${vocabularyLabels.role[member.role]} cannot do this (${describe(m.name)}). Ask the farm's owner.`);
