@@ -76,18 +76,6 @@ function tooMany(what: string, until: Date[], now: Date, advice = ""): AppError 
   return new AppError("rate_limited", `${what} For safety, try again in ${minutes} minute${minutes === 1 ? "" : "s"}${advice}.`, undefined, 429);
 }
 
-/** Failures counted for `key` in the window (after its last success when `resetOnSuccess`). */
-async function countFailures(db: Knex, key: string, resetOnSuccess: boolean, now: Date, cap: number): Promise<number> {
-  const since = new Date(now.getTime() - ATTEMPT_WINDOW_MS).toISOString();
-  let floor = since;
-  if (resetOnSuccess) {
-    const lastOk = await db("auth_attempts").where({ key, ok: true }).andWhere("at", ">", since).max({ at: "at" }).first();
-    if (lastOk?.at && lastOk.at > floor) floor = lastOk.at;
-  }
-  const rows = await db("auth_attempts").where({ key, ok: false }).andWhere("at", ">", floor).limit(cap).select("id");
-  return rows.length;
-}
-
 const wait = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
 
 /**
@@ -96,7 +84,7 @@ const wait = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
  * locked account waits LOCKED_ACCOUNT_DELAY_MS and goes on. Wrong current passwords on the
  * change-password form count toward the same lock (`what` words it).
  */
-export async function assertSignInAllowed(db: Knex, keys: AttemptKeys, now = new Date(), what = "Too many sign-in attempts.", delayMs = LOCKED_ACCOUNT_DELAY_MS): Promise<void> {
+export async function assertSignInAllowed(db: Knex, keys: AttemptKeys, now = new Date(), what = "Too many sign-in attempts."): Promise<void> {
   const k = keysOf(keys);
   if (k.address) {
     const until = await lockedUntil(db, k.address, ADDRESS_FAILURE_LIMIT, false, now);
@@ -109,9 +97,9 @@ export async function assertSignInAllowed(db: Knex, keys: AttemptKeys, now = new
     throw new AppError("rate_limited", `${what} This account is locked for now: use “Forgot your password?” to get a link by e-mail, which opens it again.`, undefined, 429);
   }
   // Unknown address: it cannot be told apart from the guesser's, so the account lock holds for it.
-  const failedHere = k.pair ? await countFailures(db, k.pair, true, now, 1) : 1;
-  if (failedHere > 0) throw tooMany(what, [accountUntil], now, ", or reset your password");
-  await wait(delayMs);
+  const failedHere = k.pair === null || (await lockedUntil(db, k.pair, 1, true, now)) !== null;
+  if (failedHere) throw tooMany(what, [accountUntil], now, ", or reset your password");
+  await wait(LOCKED_ACCOUNT_DELAY_MS);
 }
 
 export async function recordSignInAttempt(db: Knex, keys: AttemptKeys, ok: boolean, now = new Date()): Promise<void> {
