@@ -15,7 +15,15 @@ if (!process.env.SESSION_SECRET) {
   if (!fs.existsSync(secretFile)) fs.writeFileSync(secretFile, randomBytes(32).toString("hex"), { mode: 0o600 });
   process.env.SESSION_SECRET = fs.readFileSync(secretFile, "utf8").trim();
 }
+// The same for the scheduler's digest secret (a production server without one switches the route off).
+const cronFile = path.join("data", ".cron-secret");
+if (!process.env.CRON_SECRET) {
+  if (!fs.existsSync(cronFile)) fs.writeFileSync(cronFile, randomBytes(24).toString("hex"), { mode: 0o600 });
+  process.env.CRON_SECRET = fs.readFileSync(cronFile, "utf8").trim();
+}
 process.env.APP_ORIGIN ??= `http://localhost:${port}`;
+// The demo asks for the local mailbox page (every reset and invite link, for this computer only).
+process.env.MAILBOX_PAGE ??= "on";
 process.env.NEXT_TELEMETRY_DISABLED = "1";
 
 function run(label: string, cmd: string, args: string[]) {
@@ -35,7 +43,7 @@ const children: ChildProcess[] = [];
 if (fs.existsSync("scripts/mail-fake.ts")) {
   children.push(spawn("node", ["node_modules/tsx/dist/cli.mjs", "--conditions=react-server", "scripts/mail-fake.ts"], { stdio: "inherit", env: process.env }));
 }
-const server = spawn("node", ["node_modules/next/dist/bin/next", "start", "-p", port], { stdio: "inherit", env: process.env });
+const server = spawn("node", ["scripts/serve.mjs", "-p", port], { stdio: "inherit", env: process.env });
 children.push(server);
 
 setTimeout(() => {

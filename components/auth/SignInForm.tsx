@@ -21,7 +21,7 @@ export function SignInForm({ next }: { next?: string }) {
       return;
     }
     // A full load so the app shell starts fresh with the new identity.
-    window.location.assign(safeNext(next));
+    window.location.assign(safeNext(next, window.location.origin));
   });
 
   const e = formState.errors;

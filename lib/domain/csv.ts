@@ -400,3 +400,18 @@ export function findZonedDay(at: Date, zone: string): string {
   for (const p of zoneFormatter(zone).formatToParts(at)) parts[p.type] = p.value;
   return `${parts.year}-${parts.month}-${parts.day}`;
 }
+
+// Writing CSV. A cell a spreadsheet would read as a formula starts with = + - @, a tab or a carriage return
+// (OWASP, "CSV Injection"); it gets a leading apostrophe whatever follows, line breaks included (Papa's own
+// escapeFormulae checks only the first line). Numbers stay numbers: -1.25 °C is data.
+const formulaStart = /^[=+\-@\t\r]/;
+
+/** One cell, safe to open in a spreadsheet. */
+export function escapeCsvCell<T>(value: T): T | string {
+  return typeof value === "string" && formulaStart.test(value) ? `'${value}` : value;
+}
+
+/** The one way the app writes CSV: a header row, every cell through escapeCsvCell, CRLF line ends. */
+export function writeCsv(columns: readonly string[], rows: readonly (readonly unknown[])[]): string {
+  return Papa.unparse({ fields: columns.map(escapeCsvCell), data: rows.map((r) => r.map(escapeCsvCell)) }, { escapeFormulae: false, newline: "\r\n" });
+}

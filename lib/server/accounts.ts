@@ -82,7 +82,7 @@ export const wrongCredentials = () =>
  */
 export async function authenticate(
   db: Knex,
-  input: { email: string; password: string; farmId?: string; ip: string },
+  input: { email: string; password: string; farmId?: string; ip: string | null },
   now = new Date(),
 ): Promise<{ userId: string; farmId: string }> {
   const keys = { email: input.email.trim().toLowerCase(), ip: input.ip };
@@ -110,7 +110,7 @@ export const wrongCurrentPassword = () =>
  * Proves the signed-in person knows their password before it changes. Wrong tries count toward the
  * same per-account and per-address lock as sign-in, so a borrowed phone gives no extra guesses.
  */
-export async function confirmCurrentPassword(db: Knex, input: { userId: string; email: string; password: string; ip: string }, now = new Date()): Promise<void> {
+export async function confirmCurrentPassword(db: Knex, input: { userId: string; email: string; password: string; ip: string | null }, now = new Date()): Promise<void> {
   const keys = { email: input.email.trim().toLowerCase(), ip: input.ip };
   await assertSignInAllowed(db, keys, now, "Too many wrong passwords.");
   const user: UserRow | undefined = await db("users").where({ id: input.userId }).whereNull("deleted_at").first();

@@ -12,7 +12,10 @@ const EnvSchema = z
     MAIL_FROM: z.string().min(3).default("Rimebook <rimebook@localhost>"),
     UPLOAD_DIR: z.string().min(1).default("data/uploads"),
     CRON_SECRET: z.string().min(8).optional(),
+    // The local mailbox page: on only when the demo or dev asks (MAILBOX_PAGE=on), and then only for this
+    // computer itself unless MAILBOX_PAGE_REMOTE=on too. Never on from the origin's scheme.
     MAILBOX_PAGE: z.enum(["on", "off"]).optional(),
+    MAILBOX_PAGE_REMOTE: z.enum(["on", "off"]).optional(),
     MAILBOX_DIR: z.string().min(1).default("data/mailbox"), // where the local SMTP fake stores captured mail
   })
   .transform((env, ctx) => {
@@ -26,10 +29,12 @@ const EnvSchema = z
     return {
       ...env,
       SESSION_SECRET: env.SESSION_SECRET ?? "rimebook-development-secret-not-for-production-use",
-      CRON_SECRET: env.CRON_SECRET ?? "rimebook-development-cron",
+      // Production without a secret: the digest route is switched off (null), never opened by a known value.
+      // `npm run demo` makes its own secret in data/.cron-secret.
+      CRON_SECRET: env.CRON_SECRET ?? (production ? null : "rimebook-development-cron"),
       secureCookies: env.APP_ORIGIN.startsWith("https://"),
-      // The captured-mail page is for local work only; on unless explicitly off outside https.
-      mailboxPage: env.MAILBOX_PAGE ? env.MAILBOX_PAGE === "on" : !env.APP_ORIGIN.startsWith("https://"),
+      mailboxPage: env.MAILBOX_PAGE === "on",
+      mailboxRemote: env.MAILBOX_PAGE_REMOTE === "on",
     };
   });
 

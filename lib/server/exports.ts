@@ -1,9 +1,8 @@
 import "server-only";
 import type { Knex } from "knex";
-import Papa from "papaparse";
 import { z } from "zod";
 import { notFound } from "@/lib/errors";
-import { findZonedDay, isKnownTimeZone } from "@/lib/domain/csv";
+import { findZonedDay, isKnownTimeZone, writeCsv } from "@/lib/domain/csv";
 import { countDaysBetween } from "@/lib/domain";
 import { vocabularyLabels, type CheckAction, type Moisture, type Mould, type Sprouts } from "@/lib/schemas/vocabulary";
 import { parseRow } from "./sync/rows";
@@ -196,8 +195,8 @@ export async function exportCsv(db: Knex, farmId: string, what: ExportKind, now 
   const farm = await findFarm(db, farmId);
   const rows = await exportRows(db, farm, what, now);
   const columns = rows.length ? Object.keys(rows[0]) : emptyColumns[what](farm.temperature_unit === "F");
-  // A byte-order mark so spreadsheet programs read ° and accents as UTF-8; formulae are neutralised.
-  const csv = "\uFEFF" + Papa.unparse({ fields: columns, data: rows.map((r) => columns.map((c) => r[c] ?? "")) }, { escapeFormulae: true, newline: "\r\n" });
+  // A byte-order mark so spreadsheet programs read ° and accents as UTF-8; formulae are neutralised by writeCsv.
+  const csv = "\uFEFF" + writeCsv(columns, rows.map((r) => columns.map((c) => r[c] ?? "")));
   return { fileName: `rimebook-${slug(farm.name)}-${what}-${farmToday(farm, now)}.csv`, csv, rows: rows.length };
 }
 

@@ -2,6 +2,7 @@ import "server-only";
 import { NextResponse } from "next/server";
 import { ZodError, type ZodType, type z } from "zod";
 import { AppError } from "@/lib/errors";
+import { brokenTextMessage, findBrokenText } from "@/lib/schemas/common";
 
 // The one place where errors become HTTP answers: { error: { code, message, fields? } }.
 
@@ -51,17 +52,58 @@ export function errorResponse(err: unknown): NextResponse<ErrorBody> {
   );
 }
 
-/** Parse a JSON request body with a schema; malformed JSON is the sender's mistake (400), not ours. */
-export async function readJson<S extends ZodType>(req: Request, schema: S): Promise<z.infer<S>> {
+/**
+ * Reads a body up to `limit` bytes, whatever content-length says or leaves out: one byte more and `tooLarge`
+ * is thrown without reading the rest.
+ */
+export async function readBodyCapped(req: Request, limit: number, tooLarge: () => AppError): Promise<Uint8Array> {
+  const declared = Number(req.headers.get("content-length") ?? 0);
+  if (declared > limit) throw tooLarge();
+  if (!req.body) return new Uint8Array();
+  const reader = req.body.getReader();
+  const chunks: Uint8Array[] = [];
+  let total = 0;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    total += value.byteLength;
+    if (total > limit) {
+      await reader.cancel().catch(() => undefined);
+      throw tooLarge();
+    }
+    chunks.push(value);
+  }
+  const bytes = new Uint8Array(total);
+  let at = 0;
+  for (const c of chunks) {
+    bytes.set(c, at);
+    at += c.byteLength;
+  }
+  return bytes;
+}
+
+/** Refuses text holding a lone UTF-16 surrogate with a 400 naming the field (see findBrokenText). */
+export function assertWellFormedText(value: unknown): void {
+  const path = findBrokenText(value);
+  if (path) throw new AppError("invalid", "Some of what was sent has a broken character in it.", { [path.length ? path.join(".") : "_"]: brokenTextMessage }, 400);
+}
+
+const MAX_JSON_BYTES = 5_000_000;
+
+/**
+ * Parse a JSON request body with a schema; malformed JSON is the sender's mistake (400), not ours.
+ * `wellFormed: false` leaves the lone-surrogate check to the caller (the push refuses one mutation, not all).
+ */
+export async function readJson<S extends ZodType>(req: Request, schema: S, opts: { wellFormed?: boolean } = {}): Promise<z.infer<S>> {
+  const bytes = await readBodyCapped(req, MAX_JSON_BYTES, () => new AppError("too_large", "That request is too large.", undefined, 413));
   let body: unknown;
   try {
-    const text = await req.text();
-    if (text.length > 5_000_000) throw new AppError("too_large", "That request is too large.", undefined, 413);
+    const text = new TextDecoder().decode(bytes);
     body = text.length ? JSON.parse(text) : {};
-  } catch (err) {
-    if (err instanceof AppError) throw err;
+  } catch {
     throw new AppError("bad_request", "The request body is not valid JSON.");
   }
+  if (opts.wellFormed !== false) assertWellFormedText(body);
   return schema.parse(body);
 }
 

@@ -6,6 +6,7 @@ import { AppError, notFound } from "@/lib/errors";
 import { decodeCsvBytes, maxCsvBytes, countRows, type CsvReport, type CsvRowReport } from "@/lib/domain/csv";
 import { parseReadingsCsv, type CsvReading, type ReadingsCsvReport } from "@/lib/domain/csv-readings";
 import { lotKey, parseLotsCsv, type CsvLot, type LotsCsvReport } from "@/lib/domain/csv-lots";
+import { readBodyCapped } from "./http";
 import { nowIso } from "./seq";
 
 // CSV imports of cold-store readings and seed lots. All or nothing: one bad row and nothing is
@@ -17,33 +18,6 @@ const tooLarge = () =>
 
 const csvTypes = ["text/", "application/csv", "application/vnd.ms-excel", "application/octet-stream"];
 
-/** Reads a body up to `limit` bytes; one byte more and the upload is refused without reading the rest. */
-async function readCapped(req: Request, limit: number): Promise<Uint8Array> {
-  const declared = Number(req.headers.get("content-length") ?? 0);
-  if (declared > limit) throw tooLarge();
-  if (!req.body) return new Uint8Array();
-  const reader = req.body.getReader();
-  const chunks: Uint8Array[] = [];
-  let total = 0;
-  for (;;) {
-    const { done, value } = await reader.read();
-    if (done) break;
-    total += value.byteLength;
-    if (total > limit) {
-      await reader.cancel().catch(() => undefined);
-      throw tooLarge();
-    }
-    chunks.push(value);
-  }
-  const bytes = new Uint8Array(total);
-  let at = 0;
-  for (const c of chunks) {
-    bytes.set(c, at);
-    at += c.byteLength;
-  }
-  return bytes;
-}
-
 export type CsvUpload = { text: string; fileName: string | null; fields: Record<string, string> };
 
 /**
@@ -53,7 +27,7 @@ export type CsvUpload = { text: string; fileName: string | null; fields: Record<
 export async function readCsvUpload(req: Request): Promise<CsvUpload> {
   const type = (req.headers.get("content-type") ?? "text/csv").toLowerCase();
   if (type.startsWith("multipart/form-data")) {
-    const body = await readCapped(req, maxCsvBytes + 64 * 1024);
+    const body = await readBodyCapped(req, maxCsvBytes + 64 * 1024, tooLarge);
     let form: FormData;
     try {
       form = await new Response(body as BodyInit, { headers: { "content-type": type } }).formData();
@@ -71,7 +45,7 @@ export async function readCsvUpload(req: Request): Promise<CsvUpload> {
   if (!csvTypes.some((t) => type.startsWith(t))) {
     throw new AppError("unsupported_type", "Send the CSV file itself (text/csv), or as a form upload with the file in “file”.", undefined, 415);
   }
-  const text = decodeCsvBytes(await readCapped(req, maxCsvBytes));
+  const text = decodeCsvBytes(await readBodyCapped(req, maxCsvBytes, tooLarge));
   return { text, fileName: null, fields: {} };
 }
 

