@@ -46,3 +46,15 @@ export function buildKnexConfig(databaseUrl: string): Knex.Config {
 export function dialectOf(db: Knex | Knex.Transaction): Dialect {
   return db.client.config.client === "pg" ? "pg" : "sqlite";
 }
+
+/**
+ * Runs several reads as of one moment: a REPEATABLE READ, read-only transaction on PostgreSQL (each
+ * query of a request may otherwise see a different set of commits); SQLite's one connection already
+ * reads inside the transaction's snapshot. For anything that must add up across tables: a pull page, a backup.
+ */
+export function readInSnapshot<T>(db: Knex, read: (trx: Knex.Transaction) => Promise<T>): Promise<T> {
+  return db.transaction(async (trx) => {
+    if (dialectOf(trx) === "pg") await trx.raw("set transaction isolation level repeatable read, read only");
+    return read(trx);
+  });
+}

@@ -1,12 +1,13 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { freshDatabase } from "../support/db";
+import { isForeignKeyViolation, isUniqueViolation } from "@/lib/server/db-errors";
 
 const farmOwnedTables = [
   "memberships", "protocols", "protocol_sources", "lots", "stores", "readings", "bags", "checks",
   "photos", "sowings", "counts", "trials", "trial_arms", "plan_items",
 ];
 
-describe("migrations on an empty SQLite file", () => {
+describe("migrations on an empty database", () => {
   let ctx: Awaited<ReturnType<typeof freshDatabase>>;
   beforeAll(async () => {
     ctx = await freshDatabase();
@@ -41,8 +42,11 @@ describe("migrations on an empty SQLite file", () => {
     await ctx.db("bags").insert({ id: "b1", farm_id: "f1", lot_id: "l1", code: "ABC123X", ...base });
     // Same code on another farm is fine.
     await ctx.db("bags").insert({ id: "b2", farm_id: "f2", lot_id: "l2", code: "ABC123X", ...base });
-    await expect(ctx.db("bags").insert({ id: "b3", farm_id: "f1", lot_id: "l1", code: "ABC123X", ...base })).rejects.toThrow(/UNIQUE/);
-    await expect(ctx.db("bags").insert({ id: "b4", farm_id: "f1", lot_id: "nope", code: "ZZZ", ...base })).rejects.toThrow(/FOREIGN KEY/);
+    // Each database words it its own way (SQLITE_CONSTRAINT_UNIQUE / SQLSTATE 23505): ask which constraint broke.
+    const dup = await ctx.db("bags").insert({ id: "b3", farm_id: "f1", lot_id: "l1", code: "ABC123X", ...base }).then(() => null, (e: unknown) => e);
+    expect(isUniqueViolation(dup)).toBe(true);
+    const orphan = await ctx.db("bags").insert({ id: "b4", farm_id: "f1", lot_id: "nope", code: "ZZZ", ...base }).then(() => null, (e: unknown) => e);
+    expect(isForeignKeyViolation(orphan)).toBe(true);
   });
 
   it("rolls back and forward cleanly", async () => {

@@ -72,3 +72,10 @@ async function freshPostgres(server: string): Promise<FreshDatabase> {
     },
   };
 }
+
+/** A boolean column as stored: SQLite keeps 0/1, PostgreSQL true/false. Anything else is a failure. */
+export function storedBoolean(value: unknown): boolean {
+  if (value === true || value === 1) return true;
+  if (value === false || value === 0) return false;
+  throw new Error(`not a stored boolean: ${JSON.stringify(value)}`);
+}

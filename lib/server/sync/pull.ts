@@ -1,6 +1,6 @@
 import "server-only";
 import type { Knex } from "knex";
-import { dialectOf } from "@/lib/server/db-config";
+import { readInSnapshot } from "@/lib/server/db-config";
 import { parseRow } from "./rows";
 
 // The pull feed: every row of the member's farm written after a cursor, in seq order, tombstones
@@ -57,10 +57,7 @@ function present(table: PullTable, raw: Record<string, unknown>): Change {
  * so a snapshot that sees a seq sees every lower one. On SQLite the one connection already serialises.
  */
 export async function pullChanges(db: Knex, farmId: string, since: number, limit: number): Promise<PullPage> {
-  return db.transaction(async (trx) => {
-    if (dialectOf(trx) === "pg") await trx.raw("set transaction isolation level repeatable read, read only");
-    return readPage(trx, farmId, since, limit);
-  });
+  return readInSnapshot(db, (trx) => readPage(trx, farmId, since, limit));
 }
 
 async function readPage(db: Knex.Transaction, farmId: string, since: number, limit: number): Promise<PullPage> {
