@@ -2,9 +2,10 @@ import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { randomUUID } from "node:crypto";
-import knexFactory, { type Knex } from "knex";
+import type { Knex } from "knex";
 import { useDatabase } from "@/lib/server/db";
-import { isPostgresUrl, type Dialect } from "@/lib/server/db-config";
+import type { Dialect } from "@/lib/server/db-config";
+import { createPostgresDatabase, testServerUrl } from "./postgres";
 
 // Every route-handler and sync test gets its own empty database with every migration applied, and the
 // process's one knex instance (getDb) points at it. TEST_DATABASE_URL=postgres://user:pw@host/db makes
@@ -21,11 +22,11 @@ export type FreshDatabase = {
 };
 
 /** The database the tests run on. */
-export const testDialect: Dialect = isPostgresUrl(process.env.TEST_DATABASE_URL ?? "") ? "pg" : "sqlite";
+export const testDialect: Dialect = testServerUrl() ? "pg" : "sqlite";
 
 export async function freshDatabase(): Promise<FreshDatabase> {
-  const server = process.env.TEST_DATABASE_URL;
-  if (server && isPostgresUrl(server)) return freshPostgres(server);
+  const server = testServerUrl();
+  if (server) return freshPostgres(server);
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), "rimebook-test-"));
   const file = path.join(dir, `${randomUUID()}.sqlite`);
   const url = `file:${file}`;
@@ -43,22 +44,8 @@ export async function freshDatabase(): Promise<FreshDatabase> {
   };
 }
 
-/** Runs `fn` on the server's maintenance connection (the database TEST_DATABASE_URL names). */
-async function onServer<T>(server: string, fn: (admin: Knex) => Promise<T>): Promise<T> {
-  const admin = knexFactory({ client: "pg", connection: server, pool: { min: 0, max: 1 } });
-  try {
-    return await fn(admin);
-  } finally {
-    await admin.destroy();
-  }
-}
-
 async function freshPostgres(server: string): Promise<FreshDatabase> {
-  const name = `rimebook_t_${randomUUID().replace(/-/g, "").slice(0, 20)}`;
-  await onServer(server, (admin) => admin.raw(`CREATE DATABASE ${name}`));
-  const u = new URL(server);
-  u.pathname = `/${name}`;
-  const url = u.toString();
+  const { url, drop } = await createPostgresDatabase(server);
   const db = await useDatabase(url);
   await db.migrate.latest();
   return {
@@ -68,7 +55,7 @@ async function freshPostgres(server: string): Promise<FreshDatabase> {
     dialect: "pg",
     cleanup: async () => {
       await db.destroy();
-      await onServer(server, (admin) => admin.raw(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`));
+      await drop();
     },
   };
 }
