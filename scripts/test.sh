@@ -2,8 +2,8 @@
 # `npm test`: every test, on both databases.
 #  - SQLite pass: everything vitest knows (tests/unit, tests/api, tests/e2e; the real-browser suite needs
 #    Debian's chromium, installed by .ci/run or `apt-get install chromium`).
-#  - PostgreSQL pass, side by side: the route-handler and sync suites (tests/api) on a PostgreSQL server,
-#    each test file in its own fresh database. The server is TEST_DATABASE_URL when given (a role that may
+#  - PostgreSQL pass, side by side: the route-handler and sync suites (tests/api) and the crash test
+#    (tests/e2e/crash.test.ts) on a PostgreSQL server, each test file in its own fresh database. The server is TEST_DATABASE_URL when given (a role that may
 #    CREATE DATABASE); otherwise a local Debian cluster, installed with apt-get when missing (as root),
 #    started, given a role and a database, and stopped again afterwards if it was not running before.
 # TEST_POSTGRES=off leaves the PostgreSQL pass out (the summary says so). With arguments, `npm test -- <files>`
@@ -71,9 +71,9 @@ pg_pid=""
 pg_state="left out (TEST_POSTGRES=off)"
 if [ "${TEST_POSTGRES:-on}" != "off" ]; then
   if provide_postgres; then
-    echo "== PostgreSQL pass (tests/api) started alongside; its output: $pg_log"
+    echo "== PostgreSQL pass (tests/api, crash test) started alongside; its output: $pg_log"
     # One worker: the SQLite pass and its real browsers keep the other core.
-    TEST_DATABASE_URL=$PG_URL npx vitest run tests/api --maxWorkers=1 >"$pg_log" 2>&1 &
+    TEST_DATABASE_URL=$PG_URL npx vitest run tests/api tests/e2e/crash.test.ts --maxWorkers=1 >"$pg_log" 2>&1 &
     pg_pid=$!
   else
     pg_state="could not start"
@@ -88,7 +88,7 @@ pg_rc=0
 if [ -n "$pg_pid" ]; then
   wait "$pg_pid"
   pg_rc=$?
-  echo "== PostgreSQL pass (tests/api)"
+  echo "== PostgreSQL pass (tests/api, crash test)"
   cat "$pg_log"
   pg_state=$([ $pg_rc -eq 0 ] && echo passed || echo FAILED)
 elif [ "$pg_state" = "could not start" ]; then

@@ -12,7 +12,7 @@ let app: AppServer;
 let cookie = "";
 
 beforeAll(async () => {
-  app = await startApp({ name: "crash" });
+  app = await startApp({ name: "crash", onTestServer: true });
   const res = await fetch(`${app.origin}/api/auth/sign-up`, {
     method: "POST",
     headers: { "content-type": "application/json", origin: app.origin },

@@ -1,5 +1,5 @@
-// Starts the production build as one process on a fresh SQLite file (or, with TEST_DATABASE_URL, a fresh
-// database on that PostgreSQL server), with its own mail folder and uploads, and stops it by its id afterwards. Mail goes over real SMTP to the local fake (when the accounts work
+// Starts the production build as one process on a fresh SQLite file (or, for a test that asks and reads the
+// database through databaseUrl, a fresh database on the PostgreSQL server of TEST_DATABASE_URL), with its own mail folder and uploads, and stops it by its id afterwards. Mail goes over real SMTP to the local fake (when the accounts work
 // providing it is present) which stores it where the server's mailbox page reads it.
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { randomBytes } from "node:crypto";
@@ -86,12 +86,14 @@ export type StartOptions = {
   /** Name used for the server log in artifacts/e2e. */
   name?: string;
   env?: Record<string, string>;
+  /** Run on the PostgreSQL server of TEST_DATABASE_URL when one is set (the test reads the database by databaseUrl). */
+  onTestServer?: boolean;
 };
 
 export async function startApp(opts: StartOptions = {}): Promise<AppServer> {
   await ensureBuild();
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), "rimebook-e2e-"));
-  const pgServer = testServerUrl();
+  const pgServer = opts.onTestServer ? testServerUrl() : null;
   const pg = pgServer ? await createPostgresDatabase(pgServer) : null;
   const databaseFile = pg ? "" : path.join(dir, "app.sqlite");
   const databaseUrl = pg?.url ?? `file:${databaseFile}`;
