@@ -55,7 +55,8 @@ describe.skipIf(testDialect !== "pg")("two app processes pushing the same mutati
   });
   afterAll(async () => t.cleanup());
 
-  it("applies each of 500 checks exactly once; both processes answer applied for all; the first record's person and phone stay", async () => {
+  /** Two Helpers of one farm and a bag in the cold for their checks. */
+  async function farmWithBag(code: string) {
     const first: TestMember = await signedInMember(db, { role: "helper" });
     const second: TestMember = await signedInMember(db, { role: "helper", farmId: first.farmId });
     const lotId = uuid();
@@ -68,14 +69,18 @@ describe.skipIf(testDialect !== "pg")("two app processes pushing the same mutati
           deviceId: "setup",
           mutations: [
             { id: uuid(), name: "lot.create", args: { id: lotId, species: "Viola pedata" }, at },
-            { id: uuid(), name: "bag.create", args: { id: bagId, code: "TWO-PROC", lot_id: lotId, start_date: "2026-11-01" }, at },
+            { id: uuid(), name: "bag.create", args: { id: bagId, code, lot_id: lotId, start_date: "2026-11-01" }, at },
           ],
         },
       }),
       { params: Promise.resolve({}) },
     );
     expect((await setup.json()).rejected).toEqual([]);
+    return { first, second, bagId, at };
+  }
 
+  it("applies each of 500 checks exactly once; both processes answer applied for all; the first record's person and phone stay", async () => {
+    const { first, second, bagId, at } = await farmWithBag("TWO-PROC");
     const checks = Array.from({ length: 500 }, (_, i) => ({
       id: uuid(),
       name: "check.record",
@@ -103,5 +108,28 @@ describe.skipIf(testDialect !== "pg")("two app processes pushing the same mutati
     const phoneOf: Record<string, string> = { [first.userId]: "phone-a", [second.userId]: "phone-b" };
     const mismatched = records.filter((r) => storedBy.get(byMutation.get(r.id)!) !== r.user_id || phoneOf[r.user_id] !== r.device_id);
     expect(mismatched).toEqual([]);
+  });
+
+  it("the same 500 checks re-queued under new mutation ids through the other process: each check stored once, every mutation applied", async () => {
+    const { first, second, bagId, at } = await farmWithBag("TWO-REQ");
+    const checks = Array.from({ length: 500 }, (_, i) => ({
+      id: uuid(),
+      name: "check.record",
+      args: { id: uuid(), bag_id: bagId, checked_at: new Date(Date.UTC(2026, 10, 2) + i * 60_000).toISOString(), moisture: "dry", mould: "clean", sprouts: "none" },
+      at,
+    }));
+    const requeued = checks.map((c) => ({ ...c, id: uuid() }));
+    const slices = (list: typeof checks) => Array.from({ length: 10 }, (_, b) => list.slice(b * 50, b * 50 + 50));
+    const startAt = Date.now() + 4000;
+    const [a, b] = await Promise.all([
+      runWorker(t.url, { cookie: first.cookie, origin, deviceId: "phone-a", startAt, batches: slices(checks) }),
+      runWorker(t.url, { cookie: second.cookie, origin, deviceId: "phone-b", startAt, batches: slices(requeued) }),
+    ]);
+    expect(a.flatMap((x) => x.body.rejected)).toEqual([]);
+    expect(b.flatMap((x) => x.body.rejected)).toEqual([]);
+    expect(a.flatMap((x) => x.body.applied)).toEqual(checks.map((c) => c.id));
+    expect(b.flatMap((x) => x.body.applied)).toEqual(requeued.map((c) => c.id));
+    expect(await countRows(db, "checks", { bag_id: bagId })).toBe(500);
+    expect(await countRows(db, "applied_mutations", { farm_id: first.farmId, name: "check.record", outcome: "applied" })).toBe(1000);
   });
 });
