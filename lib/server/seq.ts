@@ -1,5 +1,6 @@
 import "server-only";
 import type { Knex } from "knex";
+import { dialectOf } from "./db-config";
 
 /**
  * Hands out the farm's next change counter; every synced write stamps its row with it. The UPDATE
@@ -18,7 +19,7 @@ export async function nextSeq(trx: Knex.Transaction, farmId: string): Promise<nu
  * that count rows before changing them (the last Owner). SQLite has one writer at a time already.
  */
 export async function lockFarm(trx: Knex.Transaction, farmId: string): Promise<void> {
-  if (trx.client.config.client === "pg") await trx("farms").where({ id: farmId }).forUpdate().first("id");
+  if (dialectOf(trx) === "pg") await trx("farms").where({ id: farmId }).forUpdate().first("id");
 }
 
 export const nowIso = () => new Date().toISOString();
