@@ -7,6 +7,7 @@ import Database from "better-sqlite3";
 import knexFactory from "knex";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { startApp, type AppServer } from "./support/server";
+import { testServerUrl } from "../support/postgres";
 
 let app: AppServer;
 let cookie = "";
@@ -73,7 +74,7 @@ async function count(sql: string, ...args: unknown[]): Promise<number> {
 
 const mutation = (name: string, args: Record<string, unknown>) => ({ id: randomUUID(), name, args, at: new Date().toISOString() });
 
-describe("SIGKILL during a 5,000-check push", () => {
+describe(`SIGKILL during a 5,000-check push (${testServerUrl() ? "PostgreSQL" : "SQLite"})`, () => {
   it("stores every check exactly once after a restart and a full retry", async () => {
     const lotId = randomUUID();
     const bagId = randomUUID();
