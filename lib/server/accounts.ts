@@ -7,6 +7,7 @@ import type { Role } from "@/lib/schemas/vocabulary";
 import { hashPassword, verifyPassword } from "./passwords";
 import { installStarterProtocols } from "./protocols";
 import { assertSignInAllowed, recordSignInAttempt } from "./rate-limit";
+import { isUniqueViolation } from "./db-errors";
 import { nextSeq } from "./seq";
 import { revokeAllSessions } from "./sessions";
 
@@ -28,7 +29,13 @@ export async function createUser(trx: Knex.Transaction, input: { email: string; 
   if (await trx("users").where({ email }).first("id")) throw emailTaken();
   const id = randomUUID();
   const at = now.toISOString();
-  await trx("users").insert({ id, email, name: input.name.trim(), password_hash: await hashPassword(input.password), created_at: at, updated_at: at });
+  try {
+    await trx("users").insert({ id, email, name: input.name.trim(), password_hash: await hashPassword(input.password), created_at: at, updated_at: at });
+  } catch (err) {
+    // The same e-mail signed up at the same moment: the check above passed for both, the unique index did not.
+    if (isUniqueViolation(err)) throw emailTaken();
+    throw err;
+  }
   return id;
 }
 
@@ -137,7 +144,8 @@ export async function updateDisplayName(trx: Knex.Transaction, userId: string, n
   const at = now.toISOString();
   const clean = name.trim();
   await trx("users").where({ id: userId }).update({ name: clean, updated_at: at });
-  const memberships: { id: string; farm_id: string }[] = await trx("memberships").where({ user_id: userId }).whereNull("deleted_at").select("id", "farm_id");
+  // Farm by farm in one fixed order, so two renames sharing farms never wait on each other's locks.
+  const memberships: { id: string; farm_id: string }[] = await trx("memberships").where({ user_id: userId }).whereNull("deleted_at").orderBy("farm_id").select("id", "farm_id");
   for (const m of memberships) {
     await trx("memberships").where({ id: m.id }).update({ seq: await nextSeq(trx, m.farm_id), updated_at: at });
   }

@@ -1,4 +1,5 @@
 import "server-only";
+import { isUniqueViolation } from "./db-errors";
 import type { Knex } from "knex";
 import { buildBagRows } from "@/lib/domain/rows/bag-rows";
 import { buildRoundFromRows, cadenceFor, type LastCheckRow } from "@/lib/domain/rows/round-input";
@@ -300,7 +301,6 @@ export async function findFarmDay(db: Knex, farmId: string, now: Date): Promise<
   return findZonedDay(now, farm && isKnownTimeZone(farm.timezone) ? farm.timezone : "UTC");
 }
 
-const isUniqueViolation = (err: unknown) => /UNIQUE constraint failed|duplicate key value/i.test(String((err as Error)?.message ?? ""));
 
 /**
  * Sends the farm's digest for its day at `now`, once: the digest_runs row is claimed before any mail

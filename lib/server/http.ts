@@ -3,6 +3,7 @@ import { NextResponse } from "next/server";
 import { ZodError, type ZodType, type z } from "zod";
 import { AppError } from "@/lib/errors";
 import { brokenTextMessage, findBrokenText } from "@/lib/schemas/common";
+import { isUniqueViolation } from "./db-errors";
 
 // The one place where errors become HTTP answers: { error: { code, message, fields? } }.
 
@@ -43,6 +44,13 @@ export function errorResponse(err: unknown): NextResponse<ErrorBody> {
     return NextResponse.json(
       { error: { code: err.code, message: err.message, ...(err.fields ? { fields: err.fields } : {}) } },
       { status },
+    );
+  }
+  if (isUniqueViolation(err)) {
+    // A check-then-insert raced another request (two taps, two phones): the other one was saved.
+    return NextResponse.json(
+      { error: { code: "conflict", message: "The same thing was just saved from somewhere else. Reload to see it; nothing needs to be sent again." } },
+      { status: 409 },
     );
   }
   console.error("[rimebook] unexpected error", err);

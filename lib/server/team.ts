@@ -7,7 +7,7 @@ import type { Role } from "@/lib/schemas/vocabulary";
 import { addMembership, createUser, findUserByEmail } from "./accounts";
 import { verifyPassword } from "./passwords";
 import { revokeAllSessions } from "./sessions";
-import { nextSeq } from "./seq";
+import { lockFarm, nextSeq } from "./seq";
 import { hashLinkToken, newLinkToken } from "./tokens";
 
 // The team of one farm: members with roles, invites by e-mailed one-time link. Every function
@@ -55,6 +55,8 @@ const lastOwner = () =>
   new AppError("conflict", "A farm always needs at least one Owner. Make someone else an Owner first.", undefined, 409);
 
 export async function changeRole(trx: Knex.Transaction, farmId: string, membershipId: string, role: Role, now = new Date()): Promise<TeamMember> {
+  // Two Owners demoting each other at once: the second waits here and then counts one Owner.
+  await lockFarm(trx, farmId);
   const m = await memberOfFarm(trx, farmId, membershipId);
   if (m.role === "owner" && role !== "owner" && (await ownerCount(trx, farmId)) <= 1) throw lastOwner();
   if (m.role !== role) {
@@ -65,6 +67,7 @@ export async function changeRole(trx: Knex.Transaction, farmId: string, membersh
 
 /** Removes a member (tombstone, so phones drop them on pull) and ends their sessions on this farm. */
 export async function removeMember(trx: Knex.Transaction, farmId: string, membershipId: string, now = new Date()): Promise<void> {
+  await lockFarm(trx, farmId); // count the Owners only while no one else can change them
   const m = await memberOfFarm(trx, farmId, membershipId);
   if (m.role === "owner" && (await ownerCount(trx, farmId)) <= 1) throw lastOwner();
   const at = now.toISOString();

@@ -5,7 +5,7 @@ vi.hoisted(() => {
 });
 
 import type { Knex } from "knex";
-import { freshDatabase } from "../support/db";
+import { freshDatabase, storedBoolean } from "../support/db";
 import { signedInMember, type TestMember } from "../support/auth";
 import { countRows, offline, openPhone, routedFetch, uuid, type Phone } from "../support/sync";
 import { createBag, createLot, recordCheck, setDigestOptIn, updateBag } from "@/lib/client/repo";
@@ -171,7 +171,7 @@ describe("phone sync against the real handlers", () => {
     expect(rejected[0].error?.message).toMatch(/Viewer/);
     expect(await phone.db.checks.get(refused.id)).toBeUndefined(); // never confirmed: removed from the phone's view
     expect(await db("checks").where({ id: refused.id }).first()).toBeUndefined();
-    expect(await db("memberships").where({ user_id: viewer.userId }).first("digest_opt_in")).toEqual({ digest_opt_in: 1 });
+    expect(storedBoolean((await db("memberships").where({ user_id: viewer.userId }).first("digest_opt_in")).digest_opt_in)).toBe(true);
     expect((await phone.db.meta.get(META.identity))?.value).toMatchObject({ role: "viewer" }); // the pull corrected the role
     expect(await outboxCounts(phone.db)).toMatchObject({ pending: 0, rejected: 1 });
 

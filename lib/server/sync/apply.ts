@@ -10,6 +10,7 @@ import { effectsOf, rowReferences, sameValue, type Effect, type EffectTable, typ
 import type { ProtocolPhase } from "@/lib/schemas/protocol";
 import { vocabularyLabels, type Role } from "@/lib/schemas/vocabulary";
 import { assertWellFormedText, fieldsOf } from "@/lib/server/http";
+import { isUniqueViolation } from "@/lib/server/db-errors";
 import { nextSeq } from "@/lib/server/seq";
 import { auditText, parseRow, serializeRow } from "./rows";
 
@@ -66,8 +67,10 @@ async function applyOne(db: Knex.Transaction, member: PushMember, deviceId: stri
   if (seen && seen.farm_id !== member.farmId) return { code: "conflict", message: "This change's id is already taken. It was not saved." };
   if (seen?.outcome === "applied") return "applied"; // a replay: report it, change nothing
 
-  const record = (trx: Knex.Transaction, outcome: "applied" | "rejected", error: unknown = null) =>
-    trx("applied_mutations")
+  // The mutation's own record. It never overwrites an applied record (the first push's who and where
+  // stay), only a refusal of this farm's that a later push now applies. No row back: someone else's.
+  const record = async (trx: Knex.Transaction, outcome: "applied" | "rejected", error: unknown = null): Promise<boolean> => {
+    const rows = await trx("applied_mutations")
       .insert({
         id: m.id,
         farm_id: member.farmId,
@@ -79,7 +82,18 @@ async function applyOne(db: Knex.Transaction, member: PushMember, deviceId: stri
         error: error ? JSON.stringify(error) : null,
       })
       .onConflict("id")
-      .merge();
+      .merge()
+      .where("applied_mutations.outcome", "rejected")
+      .andWhere("applied_mutations.farm_id", member.farmId)
+      .returning("id");
+    return rows.length > 0;
+  };
+  /** Another push (another process, another connection) recorded this mutation first. */
+  const recordedElsewhere = async (): Promise<"applied" | RejectedMutation["error"] | null> => {
+    const row: Seen | undefined = await db("applied_mutations").where({ id: m.id }).first("farm_id", "outcome");
+    if (row && row.farm_id !== member.farmId) return { code: "conflict", message: "This change's id is already taken. It was not saved." };
+    return row?.outcome === "applied" ? "applied" : null;
+  };
 
   let error: RejectedMutation["error"];
   try {
@@ -88,24 +102,40 @@ async function applyOne(db: Knex.Transaction, member: PushMember, deviceId: stri
     if (!canRun(member.role, m.name)) {
       throw new AppError("forbidden", `A ${vocabularyLabels.role[member.role]} cannot do this (${describe(m.name)}). Ask the farm's owner.`);
     }
-    await db.transaction(async (trx) => {
-      const ctx: Ctx = { trx, member, mutationId: m.id, at };
-      await guards[m.name]?.(ctx, args as never);
-      for (const effect of effectsOf(m.name, args as never)) await applyEffect(ctx, effect);
-      await record(trx, "applied");
-    });
-    return "applied";
+    const apply = () =>
+      db.transaction(async (trx): Promise<"applied" | RejectedMutation["error"]> => {
+        // Claim the mutation first: the same mutation pushed by another process at the same moment
+        // waits here for that push to commit, then finds it applied and changes nothing (a replay).
+        if (!(await record(trx, "applied"))) return (await recordedElsewhere()) ?? "applied";
+        const ctx: Ctx = { trx, member, mutationId: m.id, at };
+        await guards[m.name]?.(ctx, args as never);
+        for (const effect of effectsOf(m.name, args as never)) await applyEffect(ctx, effect);
+        return "applied";
+      });
+    try {
+      return await apply();
+    } catch (err) {
+      // A row this mutation writes was written by another request at the same moment (the same row id
+      // under another mutation id, a twin reading, a taken bag code): apply it again, now seeing that row.
+      if (!isUniqueViolation(err)) throw err;
+      const elsewhere = await recordedElsewhere();
+      if (elsewhere) return elsewhere;
+      return await apply();
+    }
   } catch (err) {
     if (err instanceof ZodError) {
       error = { code: "invalid", message: `Some of this ${describe(m.name)} is not right.`, fields: fieldsOf(err) };
     } else if (err instanceof AppError) {
       error = { code: err.code, message: err.message, ...(err.fields ? { fields: err.fields } : {}) };
+    } else if (isUniqueViolation(err)) {
+      // Still taken after a fresh look: sending it again would not help, so it is refused, not retried.
+      error = { code: "conflict", message: `This ${describe(m.name)} clashes with a record saved at the same moment. It was not saved.` };
     } else {
       console.error("[rimebook] push: unexpected error applying", m.name, err);
       return { code: "server_error", message: "The server could not save this change just now; it will be sent again." };
     }
   }
-  await record(db, "rejected", error);
+  if (!(await record(db, "rejected", error))) return (await recordedElsewhere()) ?? error;
   return error;
 }
 

@@ -1,5 +1,6 @@
 import "server-only";
 import type { Knex } from "knex";
+import { readInSnapshot } from "@/lib/server/db-config";
 import { parseRow } from "./rows";
 
 // The pull feed: every row of the member's farm written after a cursor, in seq order, tombstones
@@ -26,7 +27,7 @@ export type PullPage = {
   farm: FarmSettingsRow;
 };
 
-function selectFor(db: Knex, table: PullTable, farmId: string) {
+function selectFor(db: Knex.Transaction, table: PullTable, farmId: string) {
   if (table === "memberships") {
     // The team list carries names and e-mails; password hashes and other people's sessions never leave.
     return db("memberships as m")
@@ -49,7 +50,17 @@ function present(table: PullTable, raw: Record<string, unknown>): Change {
   return { table, row };
 }
 
+/**
+ * One page, read from one consistent snapshot: the farm's head and every table as of the same moment.
+ * Read on separate pooled connections, a seq committed between two reads could be passed by the
+ * cursor and never reach the phone. Writers commit in seq order (nextSeq holds the farm row's lock),
+ * so a snapshot that sees a seq sees every lower one. On SQLite the one connection already serialises.
+ */
 export async function pullChanges(db: Knex, farmId: string, since: number, limit: number): Promise<PullPage> {
+  return readInSnapshot(db, (trx) => readPage(trx, farmId, since, limit));
+}
+
+async function readPage(db: Knex.Transaction, farmId: string, since: number, limit: number): Promise<PullPage> {
   const farm = await db("farms")
     .where({ id: farmId })
     .first("id", "name", "last_frost_date", "location_note", "temperature_unit", "weekly_check_days", "timezone", "seq");

@@ -1,5 +1,5 @@
-// Starts the production build as one process on a fresh SQLite file, with its own mail folder and uploads,
-// and stops it by its id afterwards. Mail goes over real SMTP to the local fake (when the accounts work
+// Starts the production build as one process on a fresh SQLite file (or, for a test that asks and reads the
+// database through databaseUrl, a fresh database on the PostgreSQL server of TEST_DATABASE_URL), with its own mail folder and uploads, and stops it by its id afterwards. Mail goes over real SMTP to the local fake (when the accounts work
 // providing it is present) which stores it where the server's mailbox page reads it.
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { randomBytes } from "node:crypto";
@@ -8,6 +8,7 @@ import net from "node:net";
 import os from "node:os";
 import path from "node:path";
 import { ARTIFACTS, E2E_DIST_DIR, ROOT, ensureBuild } from "./build";
+import { createPostgresDatabase, testServerUrl } from "../../support/postgres";
 
 export type MailFakeHandle = { port: number; dir: string; close: () => Promise<void> };
 
@@ -15,7 +16,10 @@ export type AppServer = {
   origin: string;
   port: number;
   dir: string;
+  /** The SQLite file ("" on PostgreSQL). */
   databaseFile: string;
+  /** The server's DATABASE_URL. */
+  databaseUrl: string;
   mailboxDir: string;
   uploadDir: string;
   env: Record<string, string>;
@@ -84,13 +88,17 @@ export type StartOptions = {
   env?: Record<string, string>;
   /** Serve the local mailbox page (default true, as the demo does); false serves as plain `npm start`. */
   mailboxPage?: boolean;
+  /** Run on the PostgreSQL server of TEST_DATABASE_URL when one is set (the test reads the database by databaseUrl). */
+  onTestServer?: boolean;
 };
 
 export async function startApp(opts: StartOptions = {}): Promise<AppServer> {
   await ensureBuild();
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), "rimebook-e2e-"));
-  const databaseFile = path.join(dir, "app.sqlite");
-  const databaseUrl = `file:${databaseFile}`;
+  const pgServer = opts.onTestServer ? testServerUrl() : null;
+  const pg = pgServer ? await createPostgresDatabase(pgServer) : null;
+  const databaseFile = pg ? "" : path.join(dir, "app.sqlite");
+  const databaseUrl = pg?.url ?? `file:${databaseFile}`;
   runKnex("migrate:latest", databaseUrl);
   if (opts.seed) runKnex("seed:run", databaseUrl);
 
@@ -140,6 +148,7 @@ export async function startApp(opts: StartOptions = {}): Promise<AppServer> {
     port,
     dir,
     databaseFile,
+    databaseUrl,
     mailboxDir,
     uploadDir,
     env,
@@ -160,6 +169,7 @@ export async function startApp(opts: StartOptions = {}): Promise<AppServer> {
         clearTimeout(timer);
       }
       await mail?.close();
+      await pg?.drop();
       fs.rmSync(dir, { recursive: true, force: true });
     },
   };
