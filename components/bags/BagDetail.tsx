@@ -139,8 +139,9 @@ function BagDetailView({ data }: { data: BagDetailData }) {
           <Fact term="Lot">{lot ? [lot.source, lot.year].filter(Boolean).join(", ") || "—" : "—"}</Fact>
           <Fact term="Protocol">
             {protocol ? (
-              <Link href={`/protocols/view?id=${encodeURIComponent(protocol.id)}`} className="text-glacier-700 underline underline-offset-4">
-                {protocol.is_farm_own ? "Farm's own" : "Published source"}
+              <Link href={`/protocols/view?id=${encodeURIComponent(protocol.id)}`} className="inline-flex min-h-tap items-center text-glacier-700 underline underline-offset-4">
+                {protocol.species}
+                {protocol.is_farm_own ? " (farm's own)" : " (published sources)"}
               </Link>
             ) : (
               "None"

@@ -85,7 +85,7 @@ export function LabelSheet() {
   }
 
   return (
-    <div className="space-y-5">
+    <div className="min-w-0 space-y-5">
       <style>{printCss(size)}</style>
       <div className="no-print space-y-4">
         <header>
@@ -159,7 +159,7 @@ export function LabelSheet() {
       </div>
 
       {/* Focusable so a keyboard can scroll the real-size preview sideways. */}
-      <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Label preview at real size">
+      <div className="w-full max-w-[calc(100vw-2rem)] overflow-x-auto" tabIndex={0} role="region" aria-label="Label preview at real size">
         <div className="label-print" data-testid="label-sheet" ref={sheetRef}>
           {pageLabels(labels, size).map((page, i) => (
             <div key={i} className={`label-page label-page-${size}`}>

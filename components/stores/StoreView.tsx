@@ -185,7 +185,7 @@ export function StoreView() {
           {bagRows.map(({ bag, lot, cold, state }) => (
             <li key={bag.id} className="py-3">
               <div className="flex items-center justify-between gap-2">
-                <Link href={`/bags/view?id=${encodeURIComponent(bag.id)}`} className="font-mono text-body font-bold tracking-wider text-glacier-800 underline-offset-2 hover:underline">
+                <Link href={`/bags/view?id=${encodeURIComponent(bag.id)}`} className="inline-flex min-h-tap items-center font-mono text-body font-bold tracking-wider text-glacier-800 underline-offset-2 hover:underline">
                   {formatBagCode(bag.code)}
                 </Link>
                 <StateBadge state={state} />

@@ -138,7 +138,16 @@ describe("every screen, as the Owner on a phone", () => {
       for (const what of await runAxe(page)) axeFindings.push({ route, what });
       for (const what of await smallTargets(page)) small.push({ route, what });
       const width = await page.evaluate(() => document.documentElement.scrollWidth);
-      if (width > 390) wide.push({ route, what: `${width} px wide` });
+      if (width > 390) {
+        // Name the outermost elements that reach past the screen's edge, so the fix is easy to find.
+        const culprits = await page.evaluate(() =>
+          [...document.querySelectorAll("body *")]
+            .filter((el) => el.getBoundingClientRect().right > 391 && !(el.parentElement && el.parentElement.getBoundingClientRect().right > 391))
+            .slice(0, 3)
+            .map((el) => `${el.tagName.toLowerCase()}.${String(el.className).split(" ").slice(0, 3).join(".")} →${Math.round(el.getBoundingClientRect().right)}`),
+        );
+        wide.push({ route, what: `${width} px wide: ${culprits.join("; ")}` });
+      }
       await page.setViewportSize({ width: 1280, height: 800 });
       await settle(page);
       await page.screenshot({ path: path.join(SHOTS, `${name}-desktop.png`), fullPage: true });
