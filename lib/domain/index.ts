@@ -12,3 +12,5 @@ export * from "./statistics";
 export * from "./bag-codes";
 export * from "./cautions";
 export * from "./starter-protocols";
+export * from "./survival";
+export * from "./farm-history";

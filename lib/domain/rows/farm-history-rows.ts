@@ -1,0 +1,145 @@
+import type { Bag } from "@/lib/schemas/bag";
+import type { Check } from "@/lib/schemas/check";
+import type { Lot } from "@/lib/schemas/lot";
+import type { IsoDay } from "@/lib/domain/dates";
+import {
+  describePublishedDays,
+  findFarmWindow,
+  findSeasonOf,
+  measureDaysToRoots,
+  measureDryingSpells,
+  type FarmWindow,
+  type HistoryCheck,
+} from "@/lib/domain/farm-history";
+import { estimateSurvival, type SurvivalCurve, type TimeObservation } from "@/lib/domain/survival";
+import type { ReconciledProtocol } from "@/lib/domain/protocols";
+import { dayOfTimestamp } from "./round-input";
+
+// From the phone store's rows (or the server's) to lib/domain's farm history: only shapes change here.
+
+export type HistoryBagRow = Pick<Bag, "id" | "lot_id" | "protocol_id" | "store_id" | "box" | "start_date" | "pulled_on" | "sown_on" | "discarded_on" | "deleted_at">;
+export type HistoryCheckRow = Pick<Check, "bag_id" | "checked_at" | "moisture" | "sprouts" | "actions" | "deleted_at">;
+export type HistoryLotRow = Pick<Lot, "id" | "species" | "protocol_id" | "deleted_at">;
+
+/** Each bag's live checks in day order, with the day on the phone's own calendar. One pass plus one sort per bag. */
+export function groupChecksByBag(checks: readonly HistoryCheckRow[]): Map<string, HistoryCheck[]> {
+  const byBag = new Map<string, { at: string; check: HistoryCheck }[]>();
+  for (const c of checks) {
+    if (c.deleted_at) continue;
+    const entry = { at: c.checked_at, check: { on: dayOfTimestamp(c.checked_at), moisture: c.moisture, sprouts: c.sprouts, actions: c.actions ?? [] } };
+    const list = byBag.get(c.bag_id);
+    if (list) list.push(entry);
+    else byBag.set(c.bag_id, [entry]);
+  }
+  const out = new Map<string, HistoryCheck[]>();
+  for (const [id, list] of byBag) {
+    list.sort((a, b) => (a.at < b.at ? -1 : a.at > b.at ? 1 : 0));
+    out.set(id, list.map((e) => e.check));
+  }
+  return out;
+}
+
+/** Narrow the history: a species always, and optionally one protocol, lot or store. */
+export interface HistoryFilter {
+  species: string;
+  protocolId?: string | null;
+  lotId?: string | null;
+  storeId?: string | null;
+}
+
+function sameSpecies(a: string, b: string): boolean {
+  return a.trim().toLowerCase() === b.trim().toLowerCase();
+}
+
+/** The bags a filter picks, with their lot (a bag's protocol is its own or its lot's). */
+export function pickHistoryBags<B extends HistoryBagRow>(bags: readonly B[], lots: readonly HistoryLotRow[], filter: HistoryFilter): B[] {
+  const lotById = new Map(lots.filter((l) => !l.deleted_at).map((l) => [l.id, l]));
+  return bags.filter((b) => {
+    if (b.deleted_at) return false;
+    const lot = lotById.get(b.lot_id);
+    if (!lot || !sameSpecies(lot.species, filter.species)) return false;
+    if (filter.lotId && b.lot_id !== filter.lotId) return false;
+    if (filter.storeId && b.store_id !== filter.storeId) return false;
+    if (filter.protocolId && (b.protocol_id ?? lot.protocol_id) !== filter.protocolId) return false;
+    return true;
+  });
+}
+
+export interface RootsHistory {
+  window: FarmWindow;
+  /** Seasons the bags belong to (the spring each was sown in). */
+  seasons: number[];
+}
+
+/** Time to first roots for the bags a filter picks, beside the protocol's published window. */
+export function buildRootsHistory(
+  sources: { bags: readonly HistoryBagRow[]; lots: readonly HistoryLotRow[] },
+  checksByBag: ReadonlyMap<string, readonly HistoryCheck[]>,
+  filter: HistoryFilter,
+  protocol: ReconciledProtocol | null,
+  today: IsoDay,
+): RootsHistory {
+  const observations: TimeObservation[] = [];
+  const seasons = new Set<number>();
+  for (const bag of pickHistoryBags(sources.bags, sources.lots, filter)) {
+    const obs = measureDaysToRoots(toHistoryBag(bag), checksByBag.get(bag.id) ?? [], today);
+    if (!obs) continue;
+    observations.push(obs);
+    seasons.add(findSeasonOf(bag.start_date!));
+  }
+  return { window: findFarmWindow(observations, protocol ? describePublishedDays(protocol) : null), seasons: [...seasons].sort((a, b) => a - b) };
+}
+
+function toHistoryBag(bag: HistoryBagRow) {
+  return { startedOn: bag.start_date ?? null, pulledOn: bag.pulled_on, sownOn: bag.sown_on, discardedOn: bag.discarded_on };
+}
+
+/** Each species' farm window (no published window: the round only needs the day to turn daily). Keyed by lowercased species. */
+export function buildSpeciesWindows(
+  sources: { bags: readonly HistoryBagRow[]; lots: readonly HistoryLotRow[] },
+  checksByBag: ReadonlyMap<string, readonly HistoryCheck[]>,
+  today: IsoDay,
+): Map<string, FarmWindow> {
+  const speciesOfLot = new Map(sources.lots.filter((l) => !l.deleted_at).map((l) => [l.id, l.species.trim().toLowerCase()]));
+  const bySpecies = new Map<string, TimeObservation[]>();
+  for (const bag of sources.bags) {
+    if (bag.deleted_at) continue;
+    const species = speciesOfLot.get(bag.lot_id);
+    if (!species) continue;
+    const obs = measureDaysToRoots(toHistoryBag(bag), checksByBag.get(bag.id) ?? [], today);
+    if (!obs) continue;
+    const list = bySpecies.get(species);
+    if (list) list.push(obs);
+    else bySpecies.set(species, [obs]);
+  }
+  return new Map([...bySpecies].map(([species, obs]) => [species, findFarmWindow(obs, null)]));
+}
+
+export function speciesKey(species: string): string {
+  return species.trim().toLowerCase();
+}
+
+export interface DryingHistory {
+  storeId: string;
+  box: string;
+  curve: SurvivalCurve;
+}
+
+/** Damp → dry spells per store and per box ("" = the whole store), each with its curve. */
+export function buildDryingHistory(bags: readonly HistoryBagRow[], checksByBag: ReadonlyMap<string, readonly HistoryCheck[]>, today: IsoDay): DryingHistory[] {
+  const groups = new Map<string, { storeId: string; box: string; spells: TimeObservation[] }>();
+  const add = (storeId: string, box: string, spells: TimeObservation[]) => {
+    const key = `${storeId}|${box}`;
+    let g = groups.get(key);
+    if (!g) groups.set(key, (g = { storeId, box, spells: [] }));
+    g.spells.push(...spells);
+  };
+  for (const bag of bags) {
+    if (bag.deleted_at || !bag.store_id) continue;
+    const spells = measureDryingSpells(toHistoryBag(bag), checksByBag.get(bag.id) ?? [], today);
+    if (spells.length === 0) continue;
+    add(bag.store_id, "", spells);
+    if (bag.box) add(bag.store_id, bag.box, spells);
+  }
+  return [...groups.values()].map((g) => ({ storeId: g.storeId, box: g.box, curve: estimateSurvival(g.spells) }));
+}
