@@ -18,6 +18,7 @@ import { useToday } from "@/components/bags/use-farm-rows";
 import { formatShortDay as formatDay, formatStamp } from "@/components/bags/format-day";
 import { buildChartPoints, describeBand, measureBagCold, measureStore } from "./store-metrics";
 import { ReadingsChart } from "./ReadingsChart";
+import { DryingPanel } from "@/components/learn/DryingPanel";
 import { ReadingEntry } from "./ReadingForm";
 import { ReadingsImport } from "./ReadingsImport";
 import { StoreDelete } from "./StoreDelete";
@@ -166,6 +167,8 @@ export function StoreView() {
           </ul>
         )}
       </Card>
+
+      {store.kind !== "freezer" ? <DryingPanel storeId={store.id} /> : null}
 
       <Card>
         <h2 className="mb-1 text-body font-bold text-glacier-800">Bags in this store</h2>

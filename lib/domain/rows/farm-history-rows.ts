@@ -1,7 +1,7 @@
 import type { Bag } from "@/lib/schemas/bag";
 import type { Check } from "@/lib/schemas/check";
 import type { Lot } from "@/lib/schemas/lot";
-import type { IsoDay } from "@/lib/domain/dates";
+import { addDaysToIsoDay, type IsoDay } from "@/lib/domain/dates";
 import {
   describePublishedDays,
   findFarmWindow,
@@ -142,4 +142,34 @@ export function buildDryingHistory(bags: readonly HistoryBagRow[], checksByBag: 
     if (bag.box) add(bag.store_id, bag.box, spells);
   }
   return [...groups.values()].map((g) => ({ storeId: g.storeId, box: g.box, curve: estimateSurvival(g.spells) }));
+}
+
+/**
+ * For bags still in the cold: the day each box is likely to need a look for dryness (the earliest bag's damp spell
+ * start + the box's median drying days, else the store's). "Look at Box B by Tuesday."
+ */
+export function findBoxesToLookAt(
+  bags: readonly HistoryBagRow[],
+  checksByBag: ReadonlyMap<string, readonly HistoryCheck[]>,
+  history: readonly DryingHistory[],
+  today: IsoDay,
+): { box: string; by: IsoDay; medianDays: number }[] {
+  const medianOf = (storeId: string, box: string) =>
+    history.find((h) => h.storeId === storeId && h.box === box)?.curve.median ?? history.find((h) => h.storeId === storeId && h.box === "")?.curve.median ?? null;
+  const byBox = new Map<string, { by: IsoDay; medianDays: number }>();
+  for (const bag of bags) {
+    if (bag.deleted_at || !bag.store_id || bag.pulled_on || bag.sown_on || bag.discarded_on) continue;
+    const checks = checksByBag.get(bag.id) ?? [];
+    const spells = measureDryingSpells(toHistoryBag(bag), checks, today);
+    const open = spells[spells.length - 1];
+    if (!open || open.event || checks.length === 0) continue;
+    const box = bag.box ?? "";
+    const medianDays = medianOf(bag.store_id, box);
+    if (medianDays === null) continue;
+    const wetSince = addDaysToIsoDay(checks[checks.length - 1].on, -open.time);
+    const by = addDaysToIsoDay(wetSince, medianDays);
+    const seen = byBox.get(box);
+    if (!seen || by < seen.by) byBox.set(box, { by, medianDays });
+  }
+  return [...byBox].map(([box, v]) => ({ box, ...v })).sort((a, b) => (a.by < b.by ? -1 : a.by > b.by ? 1 : 0));
 }
