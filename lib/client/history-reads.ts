@@ -4,7 +4,7 @@ import type { Lot } from "@/lib/schemas/lot";
 import type { Store } from "@/lib/schemas/store";
 import type { IsoDay } from "@/lib/domain/dates";
 import type { FarmWindow, HistoryCheck } from "@/lib/domain/farm-history";
-import { buildSpeciesWindows, groupChecksByBag, speciesKey } from "@/lib/domain/rows/farm-history-rows";
+import { buildSpeciesWindows, groupChecksByBag, pickEndedBagsOfLiveSpecies, speciesKey } from "@/lib/domain/rows/farm-history-rows";
 import type { RimebookDB } from "./db";
 
 // Reads of the farm's own history from the phone store (works with no signal). Only reads.
@@ -33,20 +33,13 @@ export async function loadStoreHistory(db: RimebookDB, storeId: string): Promise
   return { bags, checksByBag: groupChecksByBag(checks) };
 }
 
-/**
- * Each species' farm window for Today, from the finished bags (pulled, sown, discarded) of the species that have a
- * bag in the cold. Only bags that showed roots move the day to turn daily, and roots end a bag, so the checks of
- * bags still in the cold need not be read.
- */
+/** Each species' farm window for Today (see pickEndedBagsOfLiveSpecies for which bags' checks are read). */
 export async function loadSpeciesWindows(
   db: RimebookDB,
   rows: { bags: readonly Bag[]; lots: readonly Lot[] },
   today: IsoDay,
 ): Promise<Map<string, FarmWindow>> {
-  const lotSpecies = new Map(rows.lots.map((l) => [l.id, speciesKey(l.species)]));
-  const live = new Set<string>();
-  for (const b of rows.bags) if (!b.deleted_at && b.start_date && !b.pulled_on && !b.sown_on && !b.discarded_on) live.add(lotSpecies.get(b.lot_id) ?? "");
-  const ended = rows.bags.filter((b) => !b.deleted_at && b.start_date && (b.pulled_on || b.sown_on || b.discarded_on) && live.has(lotSpecies.get(b.lot_id) ?? ""));
+  const ended = pickEndedBagsOfLiveSpecies(rows.bags, rows.lots);
   if (ended.length === 0) return new Map();
   const checks = await db.checks.where("bag_id").anyOf(ended.map((b) => b.id)).toArray();
   return buildSpeciesWindows({ bags: ended, lots: rows.lots }, groupChecksByBag(checks), today);

@@ -119,6 +119,18 @@ export function speciesKey(species: string): string {
   return species.trim().toLowerCase();
 }
 
+/**
+ * The bags whose checks Today's farm windows need: the finished bags (pulled, sown, discarded) of species that have a
+ * bag in the cold. Only bags that showed roots move the day to turn daily, and roots end a bag.
+ */
+export function pickEndedBagsOfLiveSpecies<B extends HistoryBagRow>(bags: readonly B[], lots: readonly HistoryLotRow[]): B[] {
+  const lotSpecies = new Map(lots.map((l) => [l.id, speciesKey(l.species)]));
+  const ended = (b: HistoryBagRow) => Boolean(b.pulled_on || b.sown_on || b.discarded_on);
+  const live = new Set<string>();
+  for (const b of bags) if (!b.deleted_at && b.start_date && !ended(b)) live.add(lotSpecies.get(b.lot_id) ?? "");
+  return bags.filter((b) => !b.deleted_at && b.start_date && ended(b) && live.has(lotSpecies.get(b.lot_id) ?? ""));
+}
+
 export interface DryingHistory {
   storeId: string;
   box: string;
