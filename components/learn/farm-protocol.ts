@@ -1,6 +1,7 @@
 import { reconcileProtocol, describeFarmRecordSource, type PublishedDays } from "@/lib/domain";
 import type { RootsHistory } from "@/lib/domain/rows/farm-history-rows";
-import type { ProtocolInput, ProtocolPhase } from "@/lib/schemas/protocol";
+import type { ProtocolPhase } from "@/lib/schemas/protocol";
+import { toFarmOwnProtocol } from "@/lib/domain/rows/protocol-row";
 import { mutationTable, type MutationArgs } from "@/lib/schemas/mutations";
 import type { ProtocolRow } from "@/lib/client/db";
 
@@ -53,16 +54,11 @@ export function buildFarmRecordProtocol(input: {
     note: lastBase?.note ?? "",
   };
   const phases = lastIdx >= 0 ? basePhases.map((p, i) => (i === lastIdx ? phase : p)) : [...basePhases, phase];
-  const protocol: ProtocolInput = {
-    species: input.base?.species ?? input.species,
-    commonName: input.base?.common_name ?? "",
+  const protocol = toFarmOwnProtocol(
+    input.base,
+    input.species,
     phases,
-    effectiveBand: input.base?.effective_band ?? null,
-    isFarmOwn: true,
-    noColdReason: "",
-    toxicSeed: input.base?.toxic_seed ?? null,
-    medicinal: input.base?.medicinal ?? false,
-    note: `The farm's own window from its bag history (${window.bags} bags): daily checks from day ${window.dailyFromDay}. Bags already set up keep their window until you change their protocol.`,
-  };
+    `The farm's own window from its bag history (${window.bags} bags): daily checks from day ${window.dailyFromDay}. Bags already set up keep their window until you change their protocol.`,
+  );
   return mutationTable["protocol.upsert"].args.parse({ ...protocol, id: input.id, starter_key: null, source_trial_id: null });
 }
