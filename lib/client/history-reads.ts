@@ -16,20 +16,35 @@ export interface SpeciesHistoryRows {
   checksByBag: Map<string, HistoryCheck[]>;
 }
 
-/** Every lot, bag and check of one species: the lots by species, then their bags and checks through indexes. */
+/**
+ * The live checks of some bags. A few bags: one indexed query; many: one pass over the checks table, which is far
+ * cheaper than thousands of key look-ups (as loadLastChecks does; `npm run bench -- history`).
+ */
+export async function loadChecksOfBags(db: RimebookDB, bagIds: readonly string[]): Promise<Check[]> {
+  if (bagIds.length === 0) return [];
+  if (bagIds.length <= 50) return (await db.checks.where("bag_id").anyOf([...bagIds]).toArray()).filter((c) => !c.deleted_at);
+  const wanted = new Set(bagIds);
+  const out: Check[] = [];
+  await db.checks.each((c) => {
+    if (!c.deleted_at && wanted.has(c.bag_id)) out.push(c);
+  });
+  return out;
+}
+
+/** Every lot, bag and check of one species: the lots by species, then their bags (by index) and their checks. */
 export async function loadSpeciesHistory(db: RimebookDB, species: string): Promise<SpeciesHistoryRows> {
   const key = speciesKey(species);
   const [allLots, stores] = await Promise.all([db.lots.toArray(), db.stores.toArray()]);
   const lots = allLots.filter((l) => !l.deleted_at && speciesKey(l.species) === key);
   const bags = (await db.bags.where("lot_id").anyOf(lots.map((l) => l.id)).toArray()).filter((b) => !b.deleted_at);
-  const checks = await db.checks.where("bag_id").anyOf(bags.map((b) => b.id)).toArray();
+  const checks = await loadChecksOfBags(db, bags.map((b) => b.id));
   return { lots, bags, stores: stores.filter((s) => !s.deleted_at), checksByBag: groupChecksByBag(checks) };
 }
 
 /** Every started bag's checks in one store (for its drying times). */
 export async function loadStoreHistory(db: RimebookDB, storeId: string): Promise<{ bags: Bag[]; checksByBag: Map<string, HistoryCheck[]> }> {
   const bags = (await db.bags.where("store_id").equals(storeId).toArray()).filter((b) => !b.deleted_at && b.start_date);
-  const checks: Check[] = await db.checks.where("bag_id").anyOf(bags.map((b) => b.id)).toArray();
+  const checks = await loadChecksOfBags(db, bags.map((b) => b.id));
   return { bags, checksByBag: groupChecksByBag(checks) };
 }
 
@@ -41,6 +56,6 @@ export async function loadSpeciesWindows(
 ): Promise<Map<string, FarmWindow>> {
   const ended = pickEndedBagsOfLiveSpecies(rows.bags, rows.lots);
   if (ended.length === 0) return new Map();
-  const checks = await db.checks.where("bag_id").anyOf(ended.map((b) => b.id)).toArray();
+  const checks = await loadChecksOfBags(db, ended.map((b) => b.id));
   return buildSpeciesWindows({ bags: ended, lots: rows.lots }, groupChecksByBag(checks), today);
 }
