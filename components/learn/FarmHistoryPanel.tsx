@@ -135,8 +135,8 @@ export function FarmHistoryPanel({ species, protocol, lotId = null }: { species:
           </p>
           {window.suggestsEarlier ? (
             <p className="text-label">
-              Here roots showed from day {window.earliest}, a few days before is when to start looking daily. Bags already set up keep their window; Today turns them daily
-              from that day.
+              Here the first roots showed on day {window.earliest}, so look daily from a few days before. Bags already set up keep their pull window; Today asks for daily
+              checks from that day.
             </p>
           ) : null}
           {mayAccept && !saved ? (
