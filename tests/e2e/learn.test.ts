@@ -83,7 +83,8 @@ describe("the farm learns from its own bags", () => {
     await page.getByTestId("farm-history").waitFor();
     expect(await page.getByRole("button", { name: /farm's own protocol/ }).count()).toBe(0);
     await shoot(page, "learn-farm-protocol-phone");
-    expect(errors).toEqual([]);
+    // The browser asks for /favicon.ico on its own (the app ships its icons in the manifest).
+    expect(errors.filter((e) => !e.includes("/favicon.ico"))).toEqual([]);
     await context.close();
   }, 240_000);
 

@@ -21,22 +21,25 @@ export type HistoryBagRow = Pick<Bag, "id" | "lot_id" | "protocol_id" | "store_i
 export type HistoryCheckRow = Pick<Check, "bag_id" | "checked_at" | "moisture" | "sprouts" | "actions" | "deleted_at">;
 export type HistoryLotRow = Pick<Lot, "id" | "species" | "protocol_id" | "deleted_at">;
 
-/** Each bag's live checks in day order, with the day on the phone's own calendar. One pass plus one sort per bag. */
+/**
+ * Each bag's live checks in time order, with the day on the phone's own calendar. One pass; a bag's list is sorted
+ * only when its rows came out of order (rows read through the [bag_id+checked_at] index need none).
+ */
 export function groupChecksByBag(checks: readonly HistoryCheckRow[]): Map<string, HistoryCheck[]> {
-  const byBag = new Map<string, { at: string; check: HistoryCheck }[]>();
+  const byBag = new Map<string, (HistoryCheck & { at: string })[]>();
+  const unsorted = new Set<string>();
   for (const c of checks) {
     if (c.deleted_at) continue;
-    const entry = { at: c.checked_at, check: { on: dayOfTimestamp(c.checked_at), moisture: c.moisture, sprouts: c.sprouts, actions: c.actions ?? [] } };
+    const entry = { at: c.checked_at, on: dayOfTimestamp(c.checked_at), moisture: c.moisture, sprouts: c.sprouts, actions: c.actions ?? [] };
     const list = byBag.get(c.bag_id);
-    if (list) list.push(entry);
-    else byBag.set(c.bag_id, [entry]);
+    if (!list) byBag.set(c.bag_id, [entry]);
+    else {
+      if (entry.at < list[list.length - 1].at) unsorted.add(c.bag_id);
+      list.push(entry);
+    }
   }
-  const out = new Map<string, HistoryCheck[]>();
-  for (const [id, list] of byBag) {
-    list.sort((a, b) => (a.at < b.at ? -1 : a.at > b.at ? 1 : 0));
-    out.set(id, list.map((e) => e.check));
-  }
-  return out;
+  for (const id of unsorted) byBag.get(id)!.sort((a, b) => (a.at < b.at ? -1 : a.at > b.at ? 1 : 0));
+  return byBag;
 }
 
 /** Narrow the history: a species always, and optionally one protocol, lot or store. */

@@ -1,5 +1,5 @@
 import { buildBagRows, type BagRow, type BagRowSources, type WindowClock } from "@/lib/domain/rows/bag-rows";
-import { formatIsoDay, type IsoDay } from "@/lib/domain/dates";
+import { findLocalDayOfTimestamp, type IsoDay } from "@/lib/domain/dates";
 import { buildTodaysRound, type RoundBag, type TodaysRound } from "@/lib/domain/round";
 import { defaultCheckCadence, type CheckCadence, type CheckFindings, type NextCheckReason } from "@/lib/domain/schedule";
 import type { Check } from "@/lib/schemas/check";
@@ -11,7 +11,7 @@ export type LastCheckRow = Pick<Check, "bag_id" | "checked_at" | "moisture" | "m
 
 /** The day a check was made, on the phone's own calendar (a check at 00:30 belongs to that morning). */
 export function dayOfTimestamp(at: string): IsoDay {
-  return formatIsoDay(new Date(at));
+  return findLocalDayOfTimestamp(at);
 }
 
 export function toCheckFindings(row: LastCheckRow): CheckFindings {
