@@ -103,7 +103,7 @@ describe("the farm learns from its own bags", () => {
     await context.close();
   }, 180_000);
 
-  it("draws the curve with no signal, and at desktop size", async () => {
+  it("draws the curve with no signal and at desktop size; the lot page and a fridge's drying time too", async () => {
     const context = await phoneContext(browser, app.origin);
     const page = await context.newPage();
     await signIn(page, grower);
@@ -117,6 +117,16 @@ describe("the farm learns from its own bags", () => {
     await context.setOffline(false);
     await page.setViewportSize({ width: 1280, height: 800 });
     await shoot(page, "learn-protocol-desktop");
+    // The lot page shows the same history for that lot alone; the barn fridge's page says how fast its bags dry.
+    await page.setViewportSize({ width: 390, height: 844 });
+    const [lot] = queryServer<{ id: string }>(app.databaseFile, "SELECT id FROM lots WHERE species = 'Echinacea purpurea' AND year = 2025");
+    await page.goto(`/lots/edit?id=${lot.id}`);
+    await page.getByTestId("farm-history").getByTestId("roots-curve").locator("svg").first().waitFor({ timeout: 30_000 });
+    await shoot(page, "learn-lot-phone");
+    const [barn] = queryServer<{ id: string }>(app.databaseFile, "SELECT id FROM stores WHERE name = 'Barn fridge'");
+    await page.goto(`/stores/view?id=${barn.id}`);
+    await page.getByTestId("drying-history").getByText(/Bags in this store go from damp to dry in about \d+ days/).waitFor({ timeout: 30_000 });
+    await shoot(page, "learn-store-phone");
     await context.close();
   }, 180_000);
 });
