@@ -34,6 +34,7 @@ export function FarmHistoryPanel({ species, protocol, lotId = null }: { species:
   }, [species]);
   const [storeId, setStoreId] = useState("");
   const [pickedLot, setPickedLot] = useState("");
+  const [onlyProtocol, setOnlyProtocol] = useState(false);
   const [saved, setSaved] = useState<{ id: string; species: string } | null>(null);
   const [error, setError] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
@@ -43,14 +44,15 @@ export function FarmHistoryPanel({ species, protocol, lotId = null }: { species:
   const history = useMemo(() => {
     if (!data) return null;
     const reconciled = protocol && !protocol.deleted_at ? reconcileProtocol(readProtocolRow(protocol)) : null;
-    return buildRootsHistory(data, data.checksByBag, { species, lotId: lot, storeId: storeId || null }, reconciled, today);
-  }, [data, protocol, species, lot, storeId, today]);
+    const protocolId = onlyProtocol && protocol ? protocol.id : null;
+    return buildRootsHistory(data, data.checksByBag, { species, lotId: lot, storeId: storeId || null, protocolId }, reconciled, today);
+  }, [data, protocol, species, lot, storeId, onlyProtocol, today]);
 
   if (!data || !history) return <p className="text-label text-ink-soft">Reading the farm&apos;s own bags…</p>;
   const { window, seasons } = history;
   const usedStores = data.stores.filter((s) => data.bags.some((b) => b.store_id === s.id && b.start_date));
   const existing = findFarmRecordProtocol(species, data.protocols);
-  const mayAccept = can("protocol.upsert") && window.suggestsEarlier && !lot && !storeId;
+  const mayAccept = can("protocol.upsert") && window.suggestsEarlier && !lot && !storeId && !onlyProtocol;
 
   async function accept() {
     setBusy(true);
@@ -97,6 +99,13 @@ export function FarmHistoryPanel({ species, protocol, lotId = null }: { species:
             </Field>
           ) : null}
         </div>
+      ) : null}
+
+      {protocol && !lotId ? (
+        <label className="flex min-h-tap items-center gap-3 text-label">
+          <input type="checkbox" className="h-6 w-6" checked={onlyProtocol} onChange={(e) => setOnlyProtocol(e.target.checked)} />
+          Only bags set up with this protocol
+        </label>
       ) : null}
 
       {window.bags === 0 ? (
