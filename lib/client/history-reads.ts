@@ -24,9 +24,8 @@ export async function loadChecksOfBags(db: RimebookDB, bagIds: readonly string[]
   if (bagIds.length === 0) return [];
   if (bagIds.length <= 50) return (await db.checks.where("bag_id").anyOf([...bagIds]).toArray()).filter((c) => !c.deleted_at);
   const wanted = new Set(bagIds);
-  // Read through the [bag_id+checked_at] index: each bag's checks come out in time order (no sort later).
-  const all = await db.checks.orderBy("[bag_id+checked_at]").toArray();
-  return all.filter((c) => !c.deleted_at && wanted.has(c.bag_id));
+  // One read of the whole table (getAll) is the cheapest; groupChecksByBag puts each bag's checks in time order.
+  return (await db.checks.toArray()).filter((c) => !c.deleted_at && wanted.has(c.bag_id));
 }
 
 /** Every lot, bag and check of one species: the lots by species, then their bags (by index) and their checks. */

@@ -23,7 +23,7 @@ export type HistoryLotRow = Pick<Lot, "id" | "species" | "protocol_id" | "delete
 
 /**
  * Each bag's live checks in time order, with the day on the phone's own calendar. One pass; a bag's list is sorted
- * only when its rows came out of order (rows read through the [bag_id+checked_at] index need none).
+ * only when its rows came out of order.
  */
 export function groupChecksByBag(checks: readonly HistoryCheckRow[]): Map<string, HistoryCheck[]> {
   const byBag = new Map<string, (HistoryCheck & { at: string })[]>();
