@@ -118,7 +118,7 @@ function ProtocolDetail({ row }: { row: ProtocolRow }) {
 
       {p.note ? <p className="whitespace-pre-line rounded-card bg-rime-100 p-3 text-body">{p.note}</p> : null}
 
-      {r.timedPhases.length ? <FarmHistoryPanel species={p.species} protocol={row} /> : null}
+      {r.timedPhases.length ? <FarmHistoryPanel key={row.id} species={p.species} protocol={row} /> : null}
 
       <div className="space-y-2">
         {p.toxicSeed ? (
