@@ -82,6 +82,7 @@ describe("the farm learns from its own bags", () => {
     await page.getByText(/^This farm's record, /).first().waitFor();
     await page.getByTestId("farm-history").waitFor();
     expect(await page.getByRole("button", { name: /farm's own protocol/ }).count()).toBe(0);
+    expect(await page.getByText("citing this farm's record").count()).toBe(0);
     await shoot(page, "learn-farm-protocol-phone");
     // The browser asks for /favicon.ico on its own (the app ships its icons in the manifest).
     expect(errors.filter((e) => !e.includes("/favicon.ico"))).toEqual([]);
