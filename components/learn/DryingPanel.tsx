@@ -15,9 +15,10 @@ export function DryingPanel({ storeId }: { storeId: string }) {
     const today = formatIsoDay(new Date());
     const { bags, checksByBag } = await loadStoreHistory(getLocalDb(), storeId);
     const history = buildDryingHistory(bags, checksByBag, today);
-    return { history, lookAt: findBoxesToLookAt(bags, checksByBag, history, today) };
+    return { today, history, lookAt: findBoxesToLookAt(bags, checksByBag, history, today) };
   }, [storeId]);
   if (!data) return null;
+  const { today } = data;
   const whole = data.history.find((h) => h.box === "");
   if (!whole || whole.curve.n === 0) return null;
   const boxes = data.history.filter((h) => h.box !== "" && h.curve.median !== null).sort((a, b) => a.box.localeCompare(b.box, "en", { numeric: true }));
@@ -43,10 +44,11 @@ export function DryingPanel({ storeId }: { storeId: string }) {
       ) : null}
       {data.lookAt.length ? (
         <p className="text-label font-semibold text-glacier-800">
+          Look at{" "}
           {data.lookAt
             .slice(0, 3)
-            .map((l) => `Look at ${l.box || "the bags"} by ${formatShortDay(l.by)}`)
-            .join("; ")}
+            .map((l) => `${l.box || "the bags"} ${l.by <= today ? "today" : `by ${formatShortDay(l.by)}`}`)
+            .join(", ")}
           .
         </p>
       ) : null}

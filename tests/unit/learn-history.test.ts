@@ -81,8 +81,13 @@ describe("drying spells per store and box", () => {
     ]);
   });
 
-  it("says which box to look at, and by when: the open damp spell's start plus the box's median", () => {
-    expect(findBoxesToLookAt(rows, byBag, history, today)).toEqual([{ box: "Box A", by: "2026-12-02", medianDays: 12 }]);
+  it("says which box to look at, and by when: the open damp spell's start plus the box's median (today once that has passed)", () => {
+    // Wet since 2026-11-20 + 12 days = 2026-12-02, already past on 2026-12-04 with no check since: today.
+    expect(findBoxesToLookAt(rows, byBag, history, today)).toEqual([{ box: "Box A", by: today, medianDays: 12 }]);
+    expect(findBoxesToLookAt(rows, byBag, history, "2026-11-28")).toEqual([{ box: "Box A", by: "2026-12-02", medianDays: 12 }]);
+    // Still damp at a check after the typical day: no guess for that bag.
+    const longDamp = groupChecksByBag([check("a", "2026-11-08"), check("a", "2026-11-20", { moisture: "dry", actions: ["added_water"] }), check("a", "2026-12-03")]);
+    expect(findBoxesToLookAt(rows, longDamp, history, today)).toEqual([]);
   });
 });
 

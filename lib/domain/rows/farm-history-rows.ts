@@ -161,7 +161,8 @@ export function buildDryingHistory(bags: readonly HistoryBagRow[], checksByBag: 
 
 /**
  * For bags still in the cold: the day each box is likely to need a look for dryness (the earliest bag's damp spell
- * start + the box's median drying days, else the store's). "Look at Box B by Tuesday."
+ * start + the box's median drying days, else the store's; today when that day has passed with no check since).
+ * "Look at Box B by Tuesday."
  */
 export function findBoxesToLookAt(
   bags: readonly HistoryBagRow[],
@@ -181,8 +182,12 @@ export function findBoxesToLookAt(
     const box = bag.box ?? "";
     const medianDays = medianOf(bag.store_id, box);
     if (medianDays === null) continue;
-    const wetSince = addDaysToIsoDay(checks[checks.length - 1].on, -open.time);
-    const by = addDaysToIsoDay(wetSince, medianDays);
+    const lastOn = checks[checks.length - 1].on;
+    const wetSince = addDaysToIsoDay(lastOn, -open.time);
+    const due = addDaysToIsoDay(wetSince, medianDays);
+    // Still damp at a check after the typical drying day: this bag outlasts the others, its routine check covers it.
+    if (due <= lastOn) continue;
+    const by = due < today ? today : due;
     const seen = byBox.get(box);
     if (!seen || by < seen.by) byBox.set(box, { by, medianDays });
   }
