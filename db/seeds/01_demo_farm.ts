@@ -102,6 +102,12 @@ export async function seed(knex: Knex): Promise<void> {
 
     // Bags in every state, with their checks, sowings and counts.
     const usedCodes = new Set<string>();
+    const pickUnusedCode = () => {
+      let code: string;
+      do code = generateBagCode(randomBytes(8)); while (usedCodes.has(code));
+      usedCodes.add(code);
+      return code;
+    };
     const checkers = [userIds.helper, userIds.grower, userIds.owner];
     for (const [i, b] of demoBags.entries()) {
       const lot = demoLots.find((l) => l.key === b.lot)!;
@@ -126,9 +132,7 @@ export async function seed(knex: Knex): Promise<void> {
       const sownOn = b.state === "sown" && pulledOn ? addDaysToIsoDay(pulledOn, 1) : null;
       const discardedOn = b.state === "discarded" && start ? addDaysToIsoDay(start, 18) : null;
 
-      let code: string;
-      do code = generateBagCode(randomBytes(8)); while (usedCodes.has(code));
-      usedCodes.add(code);
+      const code = pickUnusedCode();
       const bagId = randomUUID();
       await trx("bags").insert({
         id: bagId, code, lot_id: lotIds[b.lot], protocol_id: p?.id ?? null, store_id: storeIds[b.store], box: b.box,
@@ -206,9 +210,7 @@ export async function seed(knex: Knex): Promise<void> {
       const endOn = addDaysToIsoDay(start, lastDay);
       const discarded = h.rootsDay === null && h.end === "discarded";
       const pulledOn = discarded ? null : endOn;
-      let code: string;
-      do code = generateBagCode(randomBytes(8)); while (usedCodes.has(code));
-      usedCodes.add(code);
+      const code = pickUnusedCode();
       const bagId = randomUUID();
       await trx("bags").insert({
         id: bagId, code, lot_id: lotIds[h.lot], protocol_id: p?.id ?? null, store_id: storeIds[h.store], box: h.box,
