@@ -28,7 +28,7 @@ export default function RootsCurveChart({ window }: { window: FarmWindow }) {
               fill="var(--color-wheat-600)"
               fillOpacity={0.18}
               ifOverflow="hidden"
-              label={{ value: "published", position: "insideTop", fontSize: 11, fill: "var(--color-wheat-700)" }}
+              label={{ value: "published", position: "insideTopLeft", fontSize: 11, fill: "var(--color-wheat-700)" }}
             />
           ) : null}
           <XAxis dataKey="day" type="number" domain={[0, right]} allowDecimals={false} tick={{ fontSize: 12, fill: "var(--color-ink-soft)" }} label={{ value: "days in the cold", position: "insideBottomRight", offset: -2, fontSize: 12 }} />
