@@ -26,6 +26,7 @@ import { describeBagHistory } from "./bag-history";
 import { formatLongDay, formatShortDay, formatStamp } from "./format-day";
 import { useToday } from "./use-farm-rows";
 import { WindowBar } from "./WindowBar";
+import { useFarmRoots } from "@/components/learn/use-farm-roots";
 
 // One bag, read from the phone store (works with no signal). The id travels in the query (?id=…) so the page
 // itself is one static route the service worker can keep.
@@ -91,6 +92,7 @@ function BagDetailView({ data }: { data: BagDetailData }) {
   const today = useToday();
   const { can, identity } = useMember();
   const [nowMs] = useState(() => Date.now());
+  const farmRoots = useFarmRoots(lot?.species, bag.start_date ?? null);
   // The same row, effective window (moved by cold lost in the store) and next check as Today, the bags table,
   // the labels and the digest: all from lib/domain.
   const { row, effective, cold } = useMemo(() => {
@@ -105,7 +107,8 @@ function BagDetailView({ data }: { data: BagDetailData }) {
   }, [bag, lot, protocol, store, stores, data.readings, today, nowMs]);
   const window = effective.planned;
   const state = row.state;
-  const { next } = scheduleBagCheck(toRoundBag(row, bag, checks[0] ?? null), today, cadenceFor(identity?.farm.weekly_check_days));
+  const { next } = scheduleBagCheck({ ...toRoundBag(row, bag, checks[0] ?? null), rootsWatchFrom: farmRoots?.watchFrom ?? null }, today, cadenceFor(identity?.farm.weekly_check_days));
+  const inCold = state === "chilling" || state === "window_open" || state === "overdue";
   const proto = protocol ? readProtocolRow(protocol) : null;
   const shifted = effective.shifted ? effective.window : null;
   const cautions = pickBagCautions({
@@ -184,6 +187,11 @@ function BagDetailView({ data }: { data: BagDetailData }) {
           <p className="text-body" data-testid="bag-next-check">
             <span className="font-semibold">{next.on <= today ? "Check today" : `Next check ${formatShortDay(next.on)}`}</span>
             {next.on < today ? ` (due since ${formatShortDay(next.on)})` : ""}: {next.note}
+          </p>
+        ) : null}
+        {inCold && farmRoots?.line ? (
+          <p className="text-label text-glacier-800" data-testid="farm-roots-line">
+            {farmRoots.line}
           </p>
         ) : null}
         {window?.sourcesDisagree ? (

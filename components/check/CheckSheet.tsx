@@ -5,6 +5,7 @@ import { useRouter, useSearchParams } from "next/navigation";
 import { useMemo, useRef, useState } from "react";
 import { Controller, useForm, type Resolver } from "react-hook-form";
 import { useLiveQuery } from "dexie-react-hooks";
+import { useFarmRoots } from "@/components/learn/use-farm-roots";
 import { getLocalDb } from "@/lib/client/db";
 import { loadBagForSheet, loadFarmFetched } from "@/lib/client/fridge-reads";
 import { loadIdentity } from "@/lib/client/identity";
@@ -70,6 +71,7 @@ export function CheckSheet() {
   // Cold lost up to now moves the window, as on Today (the live query re-runs when the store's readings change).
   const view = useMemo(() => (data?.sheet ? describeSheet(data.sheet, today, { asOf: Date.now() }) : null), [data?.sheet, today]);
 
+  const farmRoots = useFarmRoots(data?.sheet?.lot?.species, data?.sheet?.bag.start_date ?? null);
   const unit: TemperatureUnit = data?.identity?.farm.temperature_unit === "F" ? "F" : "C";
   const cadence = cadenceFor(data?.identity?.farm.weekly_check_days);
   const role = data?.identity?.role;
@@ -138,7 +140,7 @@ export function CheckSheet() {
   }
 
   const { row, forCheck, cautions, lotText } = view;
-  const preview = previewCheck(draft, forCheck, today, cadence, formatShortDay);
+  const preview = previewCheck(draft, { ...forCheck, rootsWatchFrom: farmRoots?.watchFrom ?? null }, today, cadence, formatShortDay);
   const lastCheck = data.sheet.lastCheck;
   const entered = isDraftEntered(draft, photo !== null);
   const choice = chooseSheetSteps({ state: row.state, findings: draft, entered, lastCheck });
@@ -255,6 +257,11 @@ export function CheckSheet() {
               : "None yet"}
           </dd>
         </dl>
+        {farmRoots?.line && (row.state === "chilling" || row.state === "window_open" || row.state === "overdue") ? (
+          <p className="text-label text-glacier-800" data-testid="farm-roots-line">
+            {farmRoots.line}
+          </p>
+        ) : null}
         {cautions.length ? (
           <p className="flex flex-wrap gap-2">
             {cautions.map((c) => (

@@ -54,6 +54,8 @@ export interface BagForCheck {
   nextMoveOn: IsoDay | null;
   /** The bag's own days between checks before its window, when set. */
   checkEveryDays?: number | null;
+  /** From this day the farm's history says roots may show (daily checks from then, as on Today). */
+  rootsWatchFrom?: IsoDay | null;
 }
 
 export interface CheckPreview {
@@ -89,6 +91,7 @@ export function previewCheck(
         nextMoveOn: bag.nextMoveOn,
         cadence,
         checkEveryDays: bag.checkEveryDays ?? null,
+        rootsWatchFrom: bag.rootsWatchFrom ?? null,
       });
   let nextText: string;
   if (ends) nextText = `No more checks: the bag is ${ends}.`;

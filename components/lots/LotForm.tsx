@@ -19,6 +19,7 @@ import { describeSaveError } from "@/components/bags/save-error";
 import { matchProtocolBySpecies } from "@/lib/domain/rows/protocol-row";
 import { emptyToNull, numberOrNull, pickChanged } from "@/components/bags/form-values";
 import { SaveError } from "@/components/bags/FormBits";
+import { FarmHistoryPanel } from "@/components/learn/FarmHistoryPanel";
 
 // Add or edit a seed lot with the shared Lot schema (the id is made on the phone for a new lot).
 const LotFields = LotInput.omit({ id: true });
@@ -50,6 +51,11 @@ export function LotForm() {
       ) : (
         <LotFormBody key={lot?.id ?? "new"} lot={lot} protocols={sources.protocols} />
       )}
+      {lot ? (
+        <div className="mt-4">
+          <FarmHistoryPanel species={lot.species} protocol={sources.protocols.find((p) => p.id === lot.protocol_id && !p.deleted_at) ?? null} lotId={lot.id} />
+        </div>
+      ) : null}
     </main>
   );
 }

@@ -18,6 +18,7 @@ import { copyToFarmOwn } from "./protocol-form-values";
 import { findStarterFor, readProtocolRow } from "@/lib/domain/rows/protocol-row";
 import { OriginBadge } from "./OriginBadge";
 import { SaveError } from "@/components/bags/FormBits";
+import { FarmHistoryPanel } from "@/components/learn/FarmHistoryPanel";
 
 export function describeDays(min: number, max: number | null): string {
   if (max === null) return `${min} days or more`;
@@ -116,6 +117,8 @@ function ProtocolDetail({ row }: { row: ProtocolRow }) {
       ) : null}
 
       {p.note ? <p className="whitespace-pre-line rounded-card bg-rime-100 p-3 text-body">{p.note}</p> : null}
+
+      {r.timedPhases.length ? <FarmHistoryPanel key={row.id} species={p.species} protocol={row} /> : null}
 
       <div className="space-y-2">
         {p.toxicSeed ? (

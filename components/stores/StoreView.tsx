@@ -19,6 +19,7 @@ import { formatShortDay as formatDay, formatStamp } from "@/components/bags/form
 import { buildChartPoints, describeBand, measureBagCold, measureStore } from "./store-metrics";
 import { bandOfStoreKind } from "@/lib/domain/store-rules";
 import { ReadingsChart } from "./ReadingsChart";
+import { DryingPanel } from "@/components/learn/DryingPanel";
 import { ReadingEntry } from "./ReadingForm";
 import { ReadingsImport } from "./ReadingsImport";
 import { StoreDelete } from "./StoreDelete";
@@ -174,6 +175,8 @@ export function StoreView() {
           </ul>
         )}
       </Card>
+
+      {store.kind !== "freezer" ? <DryingPanel storeId={store.id} /> : null}
 
       <Card>
         <h2 className="mb-1 text-body font-bold text-glacier-800">Bags in this store</h2>

@@ -5,6 +5,7 @@ import { useLiveQuery } from "dexie-react-hooks";
 import { getLocalDb } from "@/lib/client/db";
 import { loadFarmFetched, loadFarmRows, loadLastChecks } from "@/lib/client/fridge-reads";
 import { loadIdentity } from "@/lib/client/identity";
+import { loadSpeciesWindows } from "@/lib/client/history-reads";
 import { formatIsoDay } from "@/lib/domain/dates";
 import { formatBagCode } from "@/lib/domain/bag-codes";
 import type { RoundItem } from "@/lib/domain/round";
@@ -24,9 +25,10 @@ async function loadRound(today: string) {
   // Readings only from the fridges' bags still in the cold: the round never shows a pulled bag.
   const [rows, identity, fetched] = await Promise.all([loadFarmRows(db, "in_cold"), loadIdentity(db), loadFarmFetched(db)]);
   const live = rows.bags.filter((b) => !b.deleted_at && b.start_date && !b.pulled_on && !b.sown_on && !b.discarded_on);
-  const lastChecks = await loadLastChecks(db, live.map((b) => b.id));
+  const [lastChecks, farmWindows] = await Promise.all([loadLastChecks(db, live.map((b) => b.id)), loadSpeciesWindows(db, rows, today)]);
   // Windows move by the cold lost up to now (each store's readings, read once): the same rows as the bags table.
-  const round = buildRoundFromRows(rows, lastChecks, today, cadenceFor(identity?.farm.weekly_check_days), { asOf: Date.now() });
+  // The farm's own history turns a bag daily from the day its species' roots have shown here.
+  const round = buildRoundFromRows(rows, lastChecks, today, cadenceFor(identity?.farm.weekly_check_days), { asOf: Date.now() }, farmWindows);
   // The same bags the red chips count, so the sentence and the chips agree.
   const urgent = round.items.filter((i) => urgentChipKinds.has(chipKindOf(i))).length;
   return { round, identity, fetched, urgent, bagCount: rows.bags.length };

@@ -1,5 +1,6 @@
 import { computeWilsonInterval, countDaysBetween, describeTrialVerdict, reconcileProtocol, type ProportionInterval, type TrialVerdict } from "@/lib/domain";
-import type { ProtocolInput, ProtocolPhase } from "@/lib/schemas/protocol";
+import type { ProtocolPhase } from "@/lib/schemas/protocol";
+import { toFarmOwnProtocol } from "@/lib/domain/rows/protocol-row";
 import { mutationTable, type MutationArgs } from "@/lib/schemas/mutations";
 import type { Bag } from "@/lib/schemas/bag";
 import type { Sowing } from "@/lib/schemas/sowing";
@@ -133,17 +134,8 @@ export function buildTrialProtocol(input: {
     note: winner ? `As in the trial arm "${winner.arm.label}".` : "",
   };
   const phases = lastIdx >= 0 ? basePhases.map((p, i) => (i === lastIdx ? trialPhase : p)) : [...basePhases, trialPhase];
-  const protocol: ProtocolInput = {
-    species: input.base?.species ?? input.species,
-    commonName: input.base?.common_name ?? "",
-    phases,
-    effectiveBand: input.base?.effective_band ?? null,
-    isFarmOwn: true,
-    noColdReason: "",
-    toxicSeed: input.base?.toxic_seed ?? null,
-    medicinal: input.base?.medicinal ?? false,
-    note: winner ? `The farm's own protocol from the trial "${input.trial.name}": ${winner.arm.label}${winner.arm.treatment ? ` (${winner.arm.treatment})` : ""}.`.slice(0, 1000) : "",
-  };
+  const note = winner ? `The farm's own protocol from the trial "${input.trial.name}": ${winner.arm.label}${winner.arm.treatment ? ` (${winner.arm.treatment})` : ""}.` : "";
+  const protocol = toFarmOwnProtocol(input.base, input.species, phases, note);
   // Parsed by the mutation's own schema: a protocol the server would refuse is refused here, in the same words.
   return mutationTable["protocol.upsert"].args.parse({ ...protocol, id: input.id, starter_key: null, source_trial_id: input.trial.id });
 }

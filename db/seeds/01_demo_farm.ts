@@ -6,7 +6,7 @@ import { generateBagCode } from "@/lib/domain/bag-codes";
 import { addDaysToIsoDay, countDaysBetween, formatIsoDay } from "@/lib/domain/dates";
 import { computePullWindow, type ProtocolForPlan } from "@/lib/domain/schedule";
 import type { Moisture, Mould, Sprouts } from "@/lib/schemas/vocabulary";
-import { demoBags, demoFarm, demoLots, demoMembers, demoPlan, demoStores } from "./data/demo-farm";
+import { demoBags, demoFarm, demoHistoryBags, demoHistoryLots, demoLots, demoMembers, demoPlan, demoStores } from "./data/demo-farm";
 
 // Loads "Bramblewick Native Nursery" afresh: removes the previous demo farm and its members, then
 // writes a season of invented records with dates relative to today.
@@ -102,6 +102,12 @@ export async function seed(knex: Knex): Promise<void> {
 
     // Bags in every state, with their checks, sowings and counts.
     const usedCodes = new Set<string>();
+    const pickUnusedCode = () => {
+      let code: string;
+      do code = generateBagCode(randomBytes(8)); while (usedCodes.has(code));
+      usedCodes.add(code);
+      return code;
+    };
     const checkers = [userIds.helper, userIds.grower, userIds.owner];
     for (const [i, b] of demoBags.entries()) {
       const lot = demoLots.find((l) => l.key === b.lot)!;
@@ -126,9 +132,7 @@ export async function seed(knex: Knex): Promise<void> {
       const sownOn = b.state === "sown" && pulledOn ? addDaysToIsoDay(pulledOn, 1) : null;
       const discardedOn = b.state === "discarded" && start ? addDaysToIsoDay(start, 18) : null;
 
-      let code: string;
-      do code = generateBagCode(randomBytes(8)); while (usedCodes.has(code));
-      usedCodes.add(code);
+      const code = pickUnusedCode();
       const bagId = randomUUID();
       await trx("bags").insert({
         id: bagId, code, lot_id: lotIds[b.lot], protocol_id: p?.id ?? null, store_id: storeIds[b.store], box: b.box,
@@ -183,6 +187,58 @@ export async function seed(knex: Knex): Promise<void> {
         }
         if (counts.length) await trx("counts").insert(counts);
       }
+    }
+
+    // Two earlier seasons of finished bags (invented), so the farm's own history shows on first run. Weekly checks,
+    // plus the check that first saw roots (or the bag's last day); the medium dries faster in the barn fridge.
+    for (const l of demoHistoryLots) {
+      const id = randomUUID();
+      lotIds[l.key] = id;
+      await trx("lots").insert({
+        id, species: l.species, common_name: l.common, source: l.source, year: l.year, quantity: l.quantity,
+        protocol_id: protocolFor(l.species)?.id ?? null, treated: false, notes: "Earlier season (demo history).", ...stamp(),
+      });
+    }
+    const dryAfter = { barn: 12, shed: 17 } as const;
+    for (const [i, h] of demoHistoryBags.entries()) {
+      const lot = [...demoLots, ...demoHistoryLots].find((l) => l.key === h.lot)!;
+      const p = protocolFor(lot.species);
+      const protocol: ProtocolForPlan | null = p ? { species: p.species, phases: JSON.parse(p.phases), effectiveBand: p.effective_band ? JSON.parse(p.effective_band) : null } : null;
+      const start = addDaysToIsoDay(today, -(365 * h.seasonsAgo + 20 + ((i * 7) % 40)));
+      const window = protocol ? computePullWindow(protocol, start) : null;
+      const lastDay = h.rootsDay ?? h.endDay!;
+      const endOn = addDaysToIsoDay(start, lastDay);
+      const discarded = h.rootsDay === null && h.end === "discarded";
+      const pulledOn = discarded ? null : endOn;
+      const code = pickUnusedCode();
+      const bagId = randomUUID();
+      await trx("bags").insert({
+        id: bagId, code, lot_id: lotIds[h.lot], protocol_id: p?.id ?? null, store_id: storeIds[h.store], box: h.box,
+        medium: "paper_towel", seed_count: 50, start_date: start, planned_start_date: null,
+        window_start: window?.opensOn ?? null, window_end: window?.closesOn ?? null,
+        pulled_on: pulledOn, sown_on: pulledOn ? addDaysToIsoDay(pulledOn, 1) : null, discarded_on: discarded ? endOn : null,
+        discard_reason: discarded ? "Mould spreading; bag sealed and binned." : null,
+        trial_arm_id: null, plan_item_id: null, check_every_days: null, note: "Earlier season (demo history).", ...stamp(),
+      });
+      const checks = [];
+      let wetSince = 0;
+      const days = [];
+      for (let d = 7; d < lastDay; d += 7) days.push(d);
+      days.push(lastDay);
+      for (const d of days) {
+        const last = d === lastDay;
+        const dry = d - wetSince >= dryAfter[h.store] + Math.floor(random() * 3);
+        if (dry) wetSince = d;
+        const actions: string[] = dry ? ["added_water"] : [];
+        if (last && h.rootsDay !== null) actions.push("pulled");
+        if (last && discarded) actions.splice(0, actions.length, "discarded");
+        checks.push({
+          id: randomUUID(), bag_id: bagId, checked_at: `${addDaysToIsoDay(start, d)}T${String(8 + (d % 3)).padStart(2, "0")}:30:00.000Z`,
+          checked_by: checkers[d % checkers.length], moisture: dry ? "dry" : "damp", mould: last && discarded ? "spreading" : "clean",
+          sprouts: last && h.rootsDay !== null ? "first_roots" : "none", actions: JSON.stringify(actions), note: null, temperature_c: null, ...stamp(),
+        });
+      }
+      await trx("checks").insert(checks);
     }
 
     // Next season's plan.

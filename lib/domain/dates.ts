@@ -44,9 +44,26 @@ export function isIsoDay(day: string): boolean {
 // A round of 10,000 bags asks for the same few hundred (day, offset) pairs; the answer never depends on the time zone.
 const addDaysCache = new Map<string, IsoDay>();
 
-/** Empties the memo (tests that switch time zones use it to prove the arithmetic itself is zone-proof). */
+// Timestamps of the same minute and zone fall on the same local day: years of checks convert each minute once.
+const dayOfMinute = new Map<string, IsoDay>();
+
+/** Empties the memos (tests that switch time zones use it to prove the arithmetic itself is zone-proof). */
 export function clearDayArithmeticCache(): void {
   addDaysCache.clear();
+  dayOfMinute.clear();
+}
+
+/** The local calendar day of an ISO timestamp (a check at 00:30 belongs to that morning). */
+export function findLocalDayOfTimestamp(at: string): IsoDay {
+  // "2026-11-02T09:15:30.000Z": memoised by "2026-11-02T09:15"; other shapes are converted each time.
+  if (at.length !== 24 || at.charCodeAt(23) !== 90 /* Z */) return formatIsoDay(new Date(at));
+  const key = at.slice(0, 16);
+  let day = dayOfMinute.get(key);
+  if (day === undefined) {
+    if (dayOfMinute.size >= 50_000) dayOfMinute.clear();
+    dayOfMinute.set(key, (day = formatIsoDay(new Date(at))));
+  }
+  return day;
 }
 
 export function addDaysToIsoDay(day: IsoDay, days: number): IsoDay {
@@ -60,9 +77,24 @@ export function addDaysToIsoDay(day: IsoDay, days: number): IsoDay {
   return result;
 }
 
-/** Calendar days from `from` to `to` (positive when `to` is later). */
+/** The day's number since 1970-01-01 on the calendar itself (UTC has no daylight saving, so no hour is lost). */
+function numberDay(day: IsoDay): number {
+  const m = isoDayPattern.exec(day);
+  if (m) {
+    const y = Number(m[1]);
+    const mo = Number(m[2]);
+    const d = Number(m[3]);
+    const ms = Date.UTC(y, mo - 1, d);
+    const back = new Date(ms);
+    if (back.getUTCFullYear() === y && back.getUTCMonth() === mo - 1 && back.getUTCDate() === d) return ms / 86_400_000;
+  }
+  // Not a real day: parseIsoDay refuses it in the grower's words.
+  return differenceInCalendarDays(parseIsoDay(day), 0);
+}
+
+/** Calendar days from `from` to `to` (positive when `to` is later). Whole-day arithmetic, fast enough for years of checks. */
 export function countDaysBetween(from: IsoDay, to: IsoDay): number {
-  return differenceInCalendarDays(parseIsoDay(to), parseIsoDay(from));
+  return numberDay(to) - numberDay(from);
 }
 
 /** yyyy-MM-dd strings sort as dates, so comparisons need no parsing. */

@@ -13,3 +13,5 @@ export * from "./bag-codes";
 export * from "./cautions";
 export * from "./starter-protocols";
 export * from "./check-choice";
+export * from "./survival";
+export * from "./farm-history";

@@ -23,6 +23,8 @@ export interface RoundBag extends BagRecord {
   nextMoveOn?: IsoDay | null;
   /** The bag's own days between checks before its window, when set. */
   checkEveryDays?: number | null;
+  /** From this day the farm's history says roots may show (daily checks from then). */
+  rootsWatchFrom?: IsoDay | null;
 }
 
 export interface RoundItem {
@@ -66,6 +68,7 @@ const reasonPriority: Record<NextCheckReason, number> = {
   follow_up: 4,
   move_to_next_phase: 5,
   window_daily: 6,
+  roots_watch: 6,
   weekly: 7,
 };
 
@@ -97,6 +100,7 @@ export function scheduleBagCheck(bag: RoundBag, today: IsoDay, cadence?: CheckCa
     nextMoveOn: bag.nextMoveOn ?? null,
     cadence,
     checkEveryDays: bag.checkEveryDays ?? null,
+    rootsWatchFrom: bag.rootsWatchFrom ?? null,
   });
   const isWindowOpening = next !== null && next.on === today && bag.window?.opensOn === today && next.reason === "window_daily";
   return { state, next: isWindowOpening ? { ...next, reason: "window_opens", note: "Pull window opens today: start daily checks." } : next };

@@ -132,6 +132,8 @@ export type NextCheckReason =
   | "follow_up"
   | "move_to_next_phase"
   | "window_daily"
+  /** Daily before the window because the farm's own bags showed roots this early (farm history). */
+  | "roots_watch"
   /** The routine check before the window (every few days; the name stays from the weekly default). */
   | "weekly";
 
@@ -151,6 +153,8 @@ export interface NextCheckInput {
   cadence?: CheckCadence;
   /** The bag's own days between checks before its window (bag setting); overrides the farm's rhythm when set. */
   checkEveryDays?: number | null;
+  /** From this day the farm's own history says roots may show (lib/domain/farm-history findRootsWatchDay): daily from then. */
+  rootsWatchFrom?: IsoDay | null;
 }
 
 const rescueActions: readonly CheckAction[] = ["removed_mouldy_seed", "fresh_towel"];
@@ -213,6 +217,13 @@ export function scheduleNextCheck(input: NextCheckInput): NextCheck | null {
         : ownDays !== null
           ? `Routine check (this bag: every ${ownDays === 1 ? "day" : `${ownDays} days`}).`
           : "Routine check.";
+    // The farm's own bags of this species showed roots this early: daily from that day, before the window.
+    const watch = input.rootsWatchFrom ?? null;
+    if (watch !== null && pickLaterDay(watch, nextDay) < on) {
+      on = pickLaterDay(watch, nextDay);
+      reason = "roots_watch";
+      note = "On this farm roots have shown by now: check daily.";
+    }
   }
 
   // Past the latest pull today, even when the last check was before the window: say so, not "window opens".

@@ -4,6 +4,8 @@ import { buildBagRows, type BagRow, type BagRowSources, type ReadingRow, type Wi
 import { convertZonedTimeToEpoch } from "@/lib/domain/csv";
 import { addDaysToIsoDay } from "@/lib/domain";
 import { parseRow } from "./sync/rows";
+import type { FarmWindow } from "@/lib/domain/farm-history";
+import { buildSpeciesWindows, groupChecksByBag, pickEndedBagsOfLiveSpecies, type HistoryCheckRow } from "@/lib/domain/rows/farm-history-rows";
 
 // The farm's bag rows on the server, built by the same lib/domain function the phone uses, so the digest and the
 // exports give every bag the window and state Today and the bags table show (windows moved by cold lost in the store).
@@ -44,4 +46,18 @@ export function farmWindowClock(timezone: string, now: Date): WindowClock {
 export async function loadFarmBagRows(db: Knex, farmId: string, day: string, timezone: string, now: Date): Promise<BagRow[]> {
   const sources = await loadBagRowSources(db, farmId, day);
   return buildBagRows(sources, day, farmWindowClock(timezone, now));
+}
+
+/** Each species' farm window for the round (the phone's loadSpeciesWindows, from the server's rows). */
+export async function loadSpeciesWindows(db: Knex, farmId: string, sources: Pick<BagRowSources, "bags" | "lots">, day: string): Promise<Map<string, FarmWindow>> {
+  const ended = pickEndedBagsOfLiveSpecies(sources.bags, sources.lots);
+  if (ended.length === 0) return new Map();
+  const checks: HistoryCheckRow[] = [];
+  const ids = ended.map((b) => b.id);
+  // In slices: SQLite caps the number of bound parameters.
+  for (let i = 0; i < ids.length; i += 500) {
+    const rows = await db("checks").where({ farm_id: farmId }).whereNull("deleted_at").whereIn("bag_id", ids.slice(i, i + 500)).select("bag_id", "checked_at", "moisture", "sprouts", "actions", "deleted_at");
+    for (const r of rows) checks.push(parseRow("checks", r) as unknown as HistoryCheckRow);
+  }
+  return buildSpeciesWindows({ bags: ended, lots: sources.lots }, groupChecksByBag(checks), day);
 }

@@ -19,7 +19,7 @@ import type { TemperatureBand } from "@/lib/schemas/protocol";
 import { vocabularyLabels, type Mould } from "@/lib/schemas/vocabulary";
 import { appLink, sendMail, type Mail } from "./mail";
 import { parseRow } from "./sync/rows";
-import { farmWindowClock, loadBagRowSources } from "./bag-rows";
+import { farmWindowClock, loadBagRowSources, loadSpeciesWindows } from "./bag-rows";
 
 // The daily digest: once per farm per day, to the members who asked for it, what the bags and
 // cold stores need today. The same lib/domain round the phone shows on Today, worked out on the
@@ -121,7 +121,9 @@ export async function buildFarmDigest(db: Knex, farmId: string, day: string, now
             : "Check daily and pull when the first roots show.",
     }));
   const listed = new Set(rows.filter((r) => (r.state === "overdue" && r.window?.closesOn) || (r.state === "window_open" && r.window?.opensOn === day)).map((r) => r.id));
-  const round = buildRoundFromRows(sources, lastChecks, day, cadenceFor(farmRow.weekly_check_days), clock);
+  // The farm's own history turns bags daily as on Today (same rule, same rows).
+  const farmWindows = await loadSpeciesWindows(db, farmId, sources, day);
+  const round = buildRoundFromRows(sources, lastChecks, day, cadenceFor(farmRow.weekly_check_days), clock, farmWindows);
   const due = round.items
     .filter((i) => !listed.has(i.bag.id))
     .map((i) => ({

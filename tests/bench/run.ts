@@ -1,7 +1,7 @@
 // `npm run bench`: Rimebook's performance figures, each beside a baseline measured in the same run on the same
 // machine, so the ratio means something wherever it is run. Not part of `npm test`.
 //   npm run bench                    all benchmarks
-//   npm run bench -- push qr         only some (push, pull, firstload, offline, today, qr)
+//   npm run bench -- push qr         only some (push, pull, firstload, offline, today, history, qr)
 // Results: a table on stdout, plus artifacts/bench/results.{json,md}.
 import fs from "node:fs";
 import os from "node:os";
@@ -333,11 +333,13 @@ async function benchToday() {
   });
 
   let due = 0;
+  const { loadSpeciesWindows } = await import("@/lib/client/history-reads");
+  // As the Today screen does it, with the farm's own history (finished bags' checks) turning bags daily.
   const loadRound = async () => {
     const rows = await loadFarmRows(phone, "in_cold");
     const live = rows.bags.filter((b) => !b.deleted_at && b.start_date && !b.pulled_on && !b.sown_on && !b.discarded_on);
-    const lastChecks = await loadLastChecks(phone, live.map((b) => b.id));
-    due = buildRoundFromRows(rows, lastChecks, today, cadenceFor(7)).items.length;
+    const [lastChecks, farmWindows] = await Promise.all([loadLastChecks(phone, live.map((b) => b.id)), loadSpeciesWindows(phone, rows, today)]);
+    due = buildRoundFromRows(rows, lastChecks, today, cadenceFor(7), undefined, farmWindows).items.length;
   };
   await loadRound();
   const full = median([await time(loadRound), await time(loadRound), await time(loadRound)]);
@@ -378,12 +380,83 @@ async function benchToday() {
   );
   phone.close();
   console.log(`  ${due} of ${BAGS} bags due today; plain scan saw ${scanned} bags in the cold; ${moved} windows moved by ${rows.readings.length.toLocaleString("en")} readings`);
-  record({ bench: "Today round", measure: `${BAGS.toLocaleString("en")} bags from the phone store (Dexie read + last checks + lib/domain round)`, value: full, unit: "ms", baseline: "reading the bags table alone (toArray)", baselineValue: readOnly });
+  record({ bench: "Today round", measure: `${BAGS.toLocaleString("en")} bags from the phone store (Dexie read + last checks + farm history + lib/domain round)`, value: full, unit: "ms", baseline: "reading the bags table alone (toArray)", baselineValue: readOnly });
   record({ bench: "Today round", measure: `reading ${rows.readings.length.toLocaleString("en")} fridge readings, one read per store (loadReadingsOfBagStores)`, value: readingsRead, unit: "ms", baseline: "reading the bags table alone (toArray)", baselineValue: readOnly });
   record({ bench: "Today round", measure: `last check of ${live.length.toLocaleString("en")} bags, one indexed query per bag (loadLastChecks)`, value: perBag, unit: "ms", baseline: "one read of the checks table, newest per bag", baselineValue: onePass });
   record({ bench: "Today round", measure: `lib/domain round over ${BAGS.toLocaleString("en")} bags, rows in memory`, value: domain, unit: "ms", baseline: "plain array scan of the same rows", baselineValue: Math.max(scan, 0.01) });
   record({ bench: "Today round", measure: `the same round with effective windows from ${rows.readings.length.toLocaleString("en")} readings`, value: domain, unit: "ms", baseline: "the same round, readings left out (planned windows)", baselineValue: planned });
 }
+
+// 7. The farm's own history: one species' curve of days to first roots over 5,000 bags and 50,000 checks in the phone
+// store (fake-indexeddb + lib/domain), the way the protocol page reads it, beside a plain scan of the same rows.
+
+const HISTORY_BAGS = 5_000;
+const HISTORY_CHECKS_PER_BAG = 10;
+
+async function benchHistory() {
+  const { RimebookDB } = await import("@/lib/client/db");
+  const { loadSpeciesHistory } = await import("@/lib/client/history-reads");
+  const { buildRootsHistory, groupChecksByBag } = await import("@/lib/domain/rows/farm-history-rows");
+  const { addDaysToIsoDay, formatIsoDay } = await import("@/lib/domain/dates");
+  const today = formatIsoDay(new Date());
+  const stamp = { farm_id: "f", created_at: "2026-01-01T00:00:00.000Z", updated_at: "2026-01-01T00:00:00.000Z", seq: 1, deleted_at: null };
+  const species = "Echinacea purpurea";
+  const lotId = randomUUID();
+  const bags = Array.from({ length: HISTORY_BAGS }, (_, i) => {
+    const start = addDaysToIsoDay(today, -(60 + (i % 900)));
+    return { ...stamp, id: randomUUID(), code: `H${String(i).padStart(6, "0")}`, lot_id: lotId, protocol_id: null, store_id: `store-${i % 3}`, box: `Box ${i % 4}`, medium: "paper_towel", seed_count: 50, start_date: start, planned_start_date: null, window_start: null, window_end: null, pulled_on: addDaysToIsoDay(start, 40), sown_on: null, discarded_on: null, discard_reason: null, trial_arm_id: null, plan_item_id: null, check_every_days: null, note: null };
+  });
+  // Ten checks a bag, four days apart; about four in five bags show roots at one of them (invented for the benchmark).
+  const checks = bags.flatMap((b, i) =>
+    Array.from({ length: HISTORY_CHECKS_PER_BAG }, (_, k) => ({
+      ...stamp, id: randomUUID(), bag_id: b.id, checked_at: `${addDaysToIsoDay(b.start_date, 4 * (k + 1))}T09:00:00.000Z`, checked_by: null,
+      moisture: k % 4 === 3 ? "dry" : "damp", mould: "clean", sprouts: i % 5 !== 0 && k >= 5 + (i % 4) ? "first_roots" : "none",
+      actions: k % 4 === 3 ? ["added_water"] : [], note: null, temperature_c: null,
+    })),
+  );
+  const phone = new RimebookDB(`bench-history-${randomUUID()}`);
+  await phone.transaction("rw", [phone.lots, phone.bags, phone.checks], async () => {
+    await phone.lots.put({ ...stamp, id: lotId, species, common_name: null, source: null, year: 2025, quantity: null, protocol_id: null, treated: false, notes: null } as never);
+    await phone.bags.bulkPut(bags as never[]);
+    await phone.checks.bulkPut(checks as never[]);
+  });
+
+  let medianDay: number | null = null;
+  const curveFromStore = async () => {
+    const rows = await loadSpeciesHistory(phone, species);
+    medianDay = buildRootsHistory(rows, rows.checksByBag, { species }, null, today).window.median;
+  };
+  await curveFromStore();
+  const full = median([await time(curveFromStore), await time(curveFromStore), await time(curveFromStore)]);
+  // Baseline: a plain scan of the same rows (the species' bags, then every check once), counting roots in one pass.
+  const plainScan = async () => {
+    const ids = new Set((await phone.bags.where("lot_id").equals(lotId).toArray()).map((b) => b.id));
+    let roots = 0;
+    for (const c of await phone.checks.toArray()) if (ids.has(c.bag_id) && c.sprouts !== "none") roots++;
+    return roots;
+  };
+  const scan = median([await time(plainScan), await time(plainScan), await time(plainScan)]);
+  // The domain part alone, rows in memory, beside one pass over the same in-memory rows.
+  const rows = await loadSpeciesHistory(phone, species);
+  const rawChecks = await phone.checks.toArray();
+  const domain = median([0, 1, 2, 3, 4].map(() => {
+    const t = performance.now();
+    buildRootsHistory(rows, groupChecksByBag(rawChecks), { species }, null, today);
+    return performance.now() - t;
+  }));
+  const memScan = median([0, 1, 2, 3, 4].map(() => {
+    const t = performance.now();
+    let n = 0;
+    for (const c of rawChecks) if (c.sprouts !== "none") n++;
+    if (n < 0) throw new Error("unreachable");
+    return performance.now() - t;
+  }));
+  phone.close();
+  console.log(`  median day to first roots over ${HISTORY_BAGS.toLocaleString("en")} bags: ${medianDay}`);
+  record({ bench: "Farm history", measure: `days-to-roots curve of one species, ${HISTORY_BAGS.toLocaleString("en")} bags and ${checks.length.toLocaleString("en")} checks from the phone store (Dexie read + lib/domain)`, value: full, unit: "ms", baseline: "plain scan of the same rows from the phone store", baselineValue: scan });
+  record({ bench: "Farm history", measure: `the same curve, rows in memory (group checks by bag + Kaplan–Meier)`, value: domain, unit: "ms", baseline: "one pass over the same checks in memory", baselineValue: Math.max(memScan, 0.01) });
+}
+
 
 // 6. QR decode per 640×480 frame (@zxing/library in node) vs binarising the same frame.
 
@@ -407,7 +480,7 @@ async function benchQr() {
   record({ bench: "QR decode", measure: `decode a label QR from one ${W}×${H} frame (mean of ${n})`, value: d, unit: "ms", baseline: "binarising the same frame only (HybridBinarizer)", baselineValue: b });
 }
 
-const ALL: Record<string, () => Promise<void>> = { push: benchPush, today: benchToday, qr: benchQr, pull: benchPull, firstload: benchFirstLoad, offline: benchOffline };
+const ALL: Record<string, () => Promise<void>> = { push: benchPush, today: benchToday, history: benchHistory, qr: benchQr, pull: benchPull, firstload: benchFirstLoad, offline: benchOffline };
 
 async function main() {
   const wanted = process.argv.slice(2).filter((a) => !a.startsWith("-"));

@@ -62,7 +62,7 @@ export const demoBags: Array<{
   { lot: "narrowleaf", state: "overdue", store: "barn", box: "Box B", medium: "sand", seeds: 40 },
   { lot: "coneflower", state: "sown", store: "barn", box: "Box C", medium: "paper_towel", seeds: 50, trialArm: "fridge", germinated: 37 },
   { lot: "coneflower", state: "sown", store: "freezer", box: "Basket 1", medium: "paper_towel", seeds: 50, trialArm: "freezer", germinated: 24 },
-  { lot: "coneflower", state: "chilling", store: "shed", box: "Top shelf", medium: "paper_towel", seeds: 100, daysIn: 12 },
+  { lot: "coneflower", state: "chilling", store: "shed", box: "Top shelf", medium: "paper_towel", seeds: 100, daysIn: 15 }, // the farm's history turns it daily (demoHistoryBags)
   { lot: "coneflower", state: "window_open", store: "shed", box: "Top shelf", medium: "vermiculite", seeds: 100 },
   { lot: "indigo", state: "chilling", store: "barn", box: "Box C", medium: "sand", seeds: 30, daysIn: 35 },
   { lot: "indigo", state: "planned", store: "barn", box: "Box C", medium: "sand", seeds: 30 },
@@ -93,3 +93,51 @@ export const demoPlan = [
   { lot: "strawberry", targetPlants: 150, weeks: -10, place: "indoor", expectedGermination: 0.6 },
   { lot: "elder", targetPlants: 40, weeks: 0, place: "outdoor", expectedGermination: 0.4 },
 ] as const;
+
+// ---- Two earlier seasons (invented demo data) -------------------------------------------------------------------
+// Finished bags the farm's own history reads: the day a check first saw roots, or the day an unfinished bag ended.
+// Coneflower in these fridges showed roots well before the published 4 weeks, so the demo has a window to suggest;
+// strawberry has too few finished bags for a window of its own yet.
+
+/** Older lots for the season two springs ago (the current lots were collected after it). */
+export const demoHistoryLots = [
+  { key: "coneflower_old", species: "Echinacea purpurea", common: "Purple coneflower", source: "Bramblewick stock beds", year: 2024, quantity: 900 },
+  { key: "milkweed_old", species: "Asclepias syriaca", common: "Common milkweed", source: "Hollow Lane roadside collection", year: 2024, quantity: 380 },
+  { key: "lavender_old", species: "Lavandula angustifolia", common: "English lavender", source: "Heathside Herbs", year: 2024, quantity: 400 },
+] as const;
+
+type HistoryLotKey = (typeof demoLots)[number]["key"] | (typeof demoHistoryLots)[number]["key"];
+
+export interface DemoHistoryBag {
+  lot: HistoryLotKey;
+  /** 1: last season's bags (started about a year before today); 2: the season before. */
+  seasonsAgo: 1 | 2;
+  store: "barn" | "shed";
+  box: string;
+  /** Day in the cold a check first saw roots; null: the bag ended without roots on `endDay`. */
+  rootsDay: number | null;
+  endDay?: number;
+  end?: "pulled" | "discarded";
+}
+
+const hb = (lot: HistoryLotKey, seasonsAgo: 1 | 2, store: "barn" | "shed", box: string, rootsDay: number | null, endDay?: number, end?: "pulled" | "discarded"): DemoHistoryBag => ({
+  lot, seasonsAgo, store, box, rootsDay, endDay, end,
+});
+
+export const demoHistoryBags: DemoHistoryBag[] = [
+  // Coneflower: published 28 days; here roots from day 18.
+  hb("coneflower_old", 2, "barn", "Box A", 19), hb("coneflower_old", 2, "barn", "Box A", 21), hb("coneflower_old", 2, "shed", "Top shelf", 24),
+  hb("coneflower_old", 2, "barn", "Box B", 20), hb("coneflower_old", 2, "shed", "Top shelf", 26), hb("coneflower_old", 2, "barn", "Box C", null, 30, "pulled"),
+  hb("coneflower", 1, "barn", "Box A", 18), hb("coneflower", 1, "barn", "Box B", 22), hb("coneflower", 1, "shed", "Top shelf", 23),
+  hb("coneflower", 1, "barn", "Box C", 21), hb("coneflower", 1, "shed", "Crisper", null, 12, "discarded"), hb("coneflower", 1, "shed", "Top shelf", 25),
+  // Common milkweed: published 14 days; here roots inside or after it.
+  hb("milkweed_old", 2, "barn", "Box A", 16), hb("milkweed_old", 2, "barn", "Box A", 19), hb("milkweed_old", 2, "barn", "Box B", 21),
+  hb("milkweed", 1, "barn", "Box A", 17), hb("milkweed", 1, "barn", "Box B", 18), hb("milkweed", 1, "shed", "Top shelf", 22), hb("milkweed", 1, "barn", "Box A", null, 25, "pulled"),
+  // Lavender: no published upper limit; slow, with unfinished bags.
+  hb("lavender_old", 2, "shed", "Crisper", 38), hb("lavender_old", 2, "shed", "Crisper", 45), hb("lavender_old", 2, "shed", "Crisper", null, 20, "discarded"),
+  hb("lavender", 1, "shed", "Crisper", 41), hb("lavender", 1, "shed", "Top shelf", 36), hb("lavender", 1, "shed", "Crisper", null, 60, "pulled"), hb("lavender", 1, "barn", "Box C", 52),
+  // St John's wort: published 30 days at 10 °C.
+  hb("stjohns", 1, "shed", "Crisper", 29), hb("stjohns", 1, "shed", "Crisper", 33), hb("stjohns", 1, "shed", "Crisper", 31),
+  // Woodland strawberry: too few finished bags for a window of its own yet.
+  hb("strawberry", 1, "barn", "Box B", 80), hb("strawberry", 1, "barn", "Box B", null, 90, "pulled"),
+];

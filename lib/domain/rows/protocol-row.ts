@@ -1,5 +1,5 @@
 import type { ProtocolRow } from "@/lib/client/db";
-import type { Protocol } from "@/lib/schemas/protocol";
+import type { Protocol, ProtocolInput, ProtocolPhase } from "@/lib/schemas/protocol";
 import { starterProtocols, type StarterProtocol } from "@/lib/domain/starter-protocols";
 
 // The phone stores protocols as snake_case rows; lib/domain and the Protocol schema use camelCase.
@@ -16,6 +16,26 @@ export function readProtocolRow(row: ProtocolRow): Protocol {
     toxicSeed: row.toxic_seed ?? null,
     medicinal: Boolean(row.medicinal),
     note: row.note ?? "",
+  };
+}
+
+/** A farm-own protocol on a base row's species, band and cautions, with new phases (a trial's winner, the farm's record). */
+export function toFarmOwnProtocol(
+  base: Pick<ProtocolRow, "species" | "common_name" | "effective_band" | "toxic_seed" | "medicinal"> | null,
+  species: string,
+  phases: ProtocolPhase[],
+  note: string,
+): ProtocolInput {
+  return {
+    species: base?.species ?? species,
+    commonName: base?.common_name ?? "",
+    phases,
+    effectiveBand: base?.effective_band ?? null,
+    isFarmOwn: true,
+    noColdReason: "",
+    toxicSeed: base?.toxic_seed ?? null,
+    medicinal: base?.medicinal ?? false,
+    note: note.slice(0, 1000),
   };
 }
 

@@ -1,8 +1,9 @@
 import { buildBagRows, type BagRow, type BagRowSources, type WindowClock } from "@/lib/domain/rows/bag-rows";
-import { formatIsoDay, type IsoDay } from "@/lib/domain/dates";
+import { findLocalDayOfTimestamp, type IsoDay } from "@/lib/domain/dates";
 import { buildTodaysRound, type RoundBag, type TodaysRound } from "@/lib/domain/round";
 import { defaultCheckCadence, type CheckCadence, type CheckFindings, type NextCheckReason } from "@/lib/domain/schedule";
 import type { Check } from "@/lib/schemas/check";
+import { findRootsWatchDay, type FarmWindow } from "@/lib/domain/farm-history";
 
 // From the phone store's rows to lib/domain's round: no numbers are worked out here, only the shapes change.
 
@@ -10,7 +11,7 @@ export type LastCheckRow = Pick<Check, "bag_id" | "checked_at" | "moisture" | "m
 
 /** The day a check was made, on the phone's own calendar (a check at 00:30 belongs to that morning). */
 export function dayOfTimestamp(at: string): IsoDay {
-  return formatIsoDay(new Date(at));
+  return findLocalDayOfTimestamp(at);
 }
 
 export function toCheckFindings(row: LastCheckRow): CheckFindings {
@@ -54,6 +55,7 @@ export function toRoundBag(
 /**
  * The round for `today` from the phone store's rows (or the server's). `lastChecks`: each bag's latest check.
  * Windows and states are the bag rows' own (effective windows), so Today, the bags table and the digest agree.
+ * `farmWindows`: each species' farm history (buildSpeciesWindows), so bags turn daily when roots may show.
  */
 export function buildRoundFromRows(
   sources: BagRowSources,
@@ -61,12 +63,16 @@ export function buildRoundFromRows(
   today: IsoDay,
   cadence?: CheckCadence,
   clock?: WindowClock,
+  farmWindows?: ReadonlyMap<string, Pick<FarmWindow, "dailyFromDay">>,
 ): TodaysRound {
   const bagById = new Map(sources.bags.map((b) => [b.id, b]));
   const roundBags: RoundBag[] = [];
   for (const row of buildBagRows(sources, today, clock)) {
     if (!inTheCold.has(row.state)) continue;
-    roundBags.push(toRoundBag(row, bagById.get(row.id), lastChecks.get(row.id) ?? null));
+    const bag = toRoundBag(row, bagById.get(row.id), lastChecks.get(row.id) ?? null);
+    // The farm's own history of this species (keyed as lib/domain/rows/farm-history-rows speciesKey).
+    const history = farmWindows?.get(row.species.trim().toLowerCase()) ?? null;
+    roundBags.push(history ? { ...bag, rootsWatchFrom: findRootsWatchDay(row.startedOn, history) } : bag);
   }
   return buildTodaysRound(roundBags, today, cadence);
 }
@@ -83,6 +89,7 @@ export const roundChipLabels: Record<RoundChipKind, string> = {
   follow_up: "Moisture follow-up",
   move_to_next_phase: "Move to cold",
   window_daily: "Window open",
+  roots_watch: "Roots may show",
   weekly: "Routine",
 };
 
