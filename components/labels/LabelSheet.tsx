@@ -138,7 +138,7 @@ export function LabelSheet() {
           <strong>On every label:</strong> “{labelCaution}” ({cautionTexts.foodFridge}) Toxic and treated seed is marked on the label itself, because the label stays with the bag in a shared fridge.
         </p>
 
-        <fieldset className="space-y-2">
+        <fieldset className="min-w-0 space-y-2">
           <legend className="text-label font-semibold">Bags ({selectedRows.length} of {candidates.length} ticked)</legend>
           <div className="flex gap-2">
             <Button tone="quiet" onClick={() => setPicked(new Set(candidates.map((r) => r.id)))}>
