@@ -400,3 +400,11 @@ export function findZonedDay(at: Date, zone: string): string {
   for (const p of zoneFormatter(zone).formatToParts(at)) parts[p.type] = p.value;
   return `${parts.year}-${parts.month}-${parts.day}`;
 }
+
+/** The farm's wall clock at `at`: its calendar day, hour (0–23) and ISO weekday (Monday 1 … Sunday 7). */
+export function readZonedClock(at: Date, zone: string): { day: string; hour: number; weekday: number } {
+  const parts: Record<string, string> = {};
+  for (const p of zoneFormatter(zone).formatToParts(at)) parts[p.type] = p.value;
+  const day = `${parts.year}-${parts.month}-${parts.day}`;
+  return { day, hour: Number(parts.hour), weekday: new Date(`${day}T12:00:00Z`).getUTCDay() || 7 };
+}

@@ -5,6 +5,7 @@ import { getDb } from "@/lib/server/db";
 import { env } from "@/lib/server/env";
 import { route } from "@/lib/server/http";
 import { runDigestForAllFarms } from "@/lib/server/digest";
+import { runReminders } from "@/lib/server/reminders";
 
 export const dynamic = "force-dynamic";
 
@@ -18,12 +19,16 @@ function assertCronSecret(req: Request): void {
   }
 }
 
-/** Sends each farm's daily digest for its own today; a second call the same day sends nothing. */
+/**
+ * Sends each farm's daily digest for its own today (a second call the same day sends nothing), and in the same
+ * pass the phone reminders whose hour has come (call it hourly for those).
+ */
 const runDigest = route(async (req) => {
   assertCronSecret(req);
   const outcomes = await runDigestForAllFarms(getDb());
   const sent = outcomes.filter((o) => o.status === "sent").length;
-  return NextResponse.json({ ok: true, farms: outcomes.length, sent, outcomes }, { headers: { "cache-control": "no-store" } });
+  const reminders = await runReminders(getDb());
+  return NextResponse.json({ ok: true, farms: outcomes.length, sent, outcomes, reminders }, { headers: { "cache-control": "no-store" } });
 });
 
 export const GET = runDigest;
