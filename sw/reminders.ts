@@ -48,9 +48,12 @@ export function openReminder(event: NotificationEvent): void {
       const windows = await self.clients.matchAll({ type: "window", includeUncontrolled: true });
       const open = windows.find((w) => new URL(w.url).origin === self.location.origin);
       if (open) {
-        const focused = await open.focus();
-        if (new URL(focused.url).pathname !== new URL(target).pathname) await focused.navigate(target).catch(() => self.clients.openWindow(target));
-        return;
+        // Today in the window already open (navigate needs no user gesture; focus brings it to the front).
+        const shown = new URL(open.url).pathname === new URL(target).pathname ? open : ((await open.navigate(target).catch(() => null)) ?? null);
+        if (shown) {
+          await shown.focus().catch(() => undefined);
+          return;
+        }
       }
       await self.clients.openWindow(target);
     })(),
