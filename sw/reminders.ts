@@ -30,7 +30,6 @@ export function showReminder(event: PushEvent): void {
     self.registration.showNotification(m.title, {
       body: m.body,
       icon: ICON,
-      badge: ICON,
       tag: m.tag,
       data: { url: m.url },
       lang: "en",

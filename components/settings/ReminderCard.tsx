@@ -8,7 +8,7 @@ import { Field, Select } from "@/components/ui/Field";
 import { Notice } from "@/components/season/Notice";
 import { describeReminderDays, formatHour, reminderWeekdays } from "@/lib/domain/reminder";
 import { everyDay, type ReminderState, type ReminderTime } from "@/lib/schemas/reminder";
-import { loadReminderState, readPushSupport, remindMeOnThisPhone, saveReminderTime, sendTestReminder, stopRemindersOnThisPhone } from "@/lib/client/reminders";
+import { checkThisPhone, loadReminderState, readPushSupport, remindMeOnThisPhone, saveReminderTime, sendTestReminder, stopRemindersOnThisPhone } from "@/lib/client/reminders";
 
 const hours = Array.from({ length: 24 }, (_, h) => h);
 const sameTime = (a: ReminderTime, b: ReminderTime) => a.hour === b.hour && a.days.join() === b.days.join();
@@ -20,6 +20,7 @@ export function ReminderCard() {
   const [busy, setBusy] = useState<null | "on" | "save" | "test" | "off">(null);
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
   const [support, setSupport] = useState<ReturnType<typeof readPushSupport> | null>(null);
+  const [lost, setLost] = useState(false);
 
   async function refresh() {
     const res = await loadReminderState();
@@ -27,7 +28,10 @@ export function ReminderCard() {
       setState("offline");
       return;
     }
-    setState(res.data);
+    // A phone whose browser dropped the subscription is not reminded any more: offer to turn it on again.
+    const phone = await checkThisPhone(res.data.here);
+    setLost(phone === "lost");
+    setState(phone === "lost" ? { ...res.data, here: null } : res.data);
     const chosen = res.data.here ?? res.data.elsewhere;
     if (chosen) setTime({ hour: chosen.hour, days: chosen.days });
   }
@@ -73,6 +77,7 @@ export function ReminderCard() {
         <Notice>Notifications are blocked for Rimebook in this browser. Allow them in the browser&apos;s site settings, then come back here.</Notice>
       ) : null}
 
+      {lost ? <Notice className="mb-3">This phone&apos;s browser stopped accepting reminders. Tap “Remind me on this phone” to turn them on again.</Notice> : null}
       {here ? (
         <p role="status" className="mb-3 rounded-xl bg-moss-100 px-3 py-2 text-label font-semibold text-moss-700">
           On: this phone reminds you at {formatHour(here.hour)} ({zone}), {describeReminderDays(here.days)}.

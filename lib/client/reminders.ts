@@ -88,6 +88,18 @@ export async function saveReminderTime(time: ReminderTime, subscription?: PushSu
   return call<ReminderTime>("PUT", "/api/reminders", { deviceId, subscription: sub.toJSON(), hour: time.hour, days: time.days });
 }
 
+/**
+ * On opening Settings: the browser may have renewed this phone's subscription (a new endpoint) or dropped it.
+ * A renewed one is saved at once; a dropped one means reminders no longer reach this phone.
+ */
+export async function checkThisPhone(here: ReminderState["here"]): Promise<"ok" | "renewed" | "lost"> {
+  if (!here || readPushSupport().permission !== "granted") return "ok";
+  const sub = await currentSubscription().catch(() => null);
+  if (!sub) return "lost";
+  if (sub.endpoint === here.endpoint) return "ok";
+  return (await saveReminderTime(here, sub)).ok ? "renewed" : "ok";
+}
+
 async function currentSubscription(): Promise<PushSubscription | null> {
   if (!readPushSupport().supported) return null;
   // getRegistration, not ready: with no service worker (development) `ready` never settles.

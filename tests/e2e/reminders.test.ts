@@ -46,6 +46,8 @@ beforeAll(async () => {
       return ask();
     }) as typeof Notification.requestPermission;
     const bytes = (b64: string) => Uint8Array.from(atob(b64.replace(/-/g, "+").replace(/_/g, "/").padEnd(Math.ceil(b64.length / 4) * 4, "=")), (c) => c.charCodeAt(0)).buffer;
+    // The browser keeps its subscription across pages: so does this stand-in (in localStorage).
+    const saved = localStorage.getItem("fake-push-key");
     let active: PushSubscription | null = null;
     const make = (key: ArrayBuffer) =>
       ({
@@ -56,13 +58,16 @@ beforeAll(async () => {
         toJSON: () => sub,
         unsubscribe: async () => {
           active = null;
+          localStorage.removeItem("fake-push-key");
           return true;
         },
       }) as unknown as PushSubscription;
+    if (saved) active = make(bytes(saved));
     PushManager.prototype.subscribe = async function (opts?: PushSubscriptionOptionsInit) {
       const key = new Uint8Array(opts!.applicationServerKey as ArrayBuffer);
       w.__push.subscribedWith = btoa(String.fromCharCode(...key)).replace(/\+/g, "-").replace(/\//g, "_").replace(/=+$/, "");
       active = make(key.buffer as ArrayBuffer);
+      localStorage.setItem("fake-push-key", w.__push.subscribedWith);
       return active;
     };
     PushManager.prototype.getSubscription = async () => active;
@@ -130,7 +135,7 @@ describe("reminders on the phone, in the browser", () => {
     const message = push.arrived.find((a) => (a.json as { tag: string }).tag === "rimebook-round")!;
     const cdp = await phone.newCDPSession(page);
     await deliverToServiceWorker(cdp, message.text);
-    const shown = await expect
+    await expect
       .poll(
         () =>
           page.evaluate(async () => {
@@ -148,7 +153,6 @@ describe("reminders on the phone, in the browser", () => {
           data: { url: "/today" },
         },
       ]);
-    void shown;
 
     // No DevTools command clicks a notification, so the worker's own notificationclick handler is run with the
     // notification it showed (an untrusted event: Chromium then refuses focus() and openWindow(), so what this
@@ -164,8 +168,25 @@ describe("reminders on the phone, in the browser", () => {
     await shoot(page, "reminders-opened-today");
   });
 
+  it("works with the app closed: the push wakes the service worker, which shows the notification", async () => {
+    const message = push.arrived.find((a) => (a.json as { tag: string }).tag === "rimebook-round")!;
+    await page.close();
+    const blank = await phone.newPage(); // about:blank: no Rimebook window is open
+    const cdp = await phone.newCDPSession(blank);
+    await deliverToServiceWorker(cdp, message.text);
+    const worker = phone.serviceWorkers()[0] ?? (await phone.waitForEvent("serviceworker"));
+    await expect
+      .poll(() => worker.evaluate(async () => (await (self as unknown as ServiceWorkerGlobalScope).registration.getNotifications()).map((n) => n.title)), { timeout: 15_000 })
+      .toEqual([(message.json as { title: string }).title]);
+    await blank.close();
+    page = await phone.newPage();
+    errors.push(...watchErrors(page));
+  });
+
   it("signing out on this phone removes its reminder", async () => {
     await page.goto("/settings");
+    // Opened again, Settings finds the browser's subscription is the one the server has.
+    await page.getByText(/^On: this phone reminds you at/).waitFor();
     await page.getByRole("button", { name: "Sign out on this phone" }).click();
     await page.waitForURL(/\/sign-in/);
     expect(queryServer(app.databaseFile, "SELECT id FROM push_subscriptions")).toEqual([]);
