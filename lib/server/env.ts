@@ -1,6 +1,9 @@
 import "server-only";
 import { z } from "zod";
 
+/** An empty value (`VAPID_PRIVATE_KEY=` in a compose file) means unset: reminders off, not a broken start. */
+const emptyAsUnset = (v: unknown) => (typeof v === "string" && v.trim() === "" ? undefined : v);
+
 /** Who push services may contact about our messages: the app's https address, else the sender's mailbox. */
 function vapidSubjectFor(origin: string, mailFrom: string): string {
   if (origin.startsWith("https://")) return new URL(origin).origin;
@@ -22,21 +25,18 @@ const EnvSchema = z
     MAILBOX_PAGE: z.enum(["on", "off"]).optional(),
     MAILBOX_DIR: z.string().min(1).default("data/mailbox"), // where the local SMTP fake stores captured mail
     // Web Push (RFC 8292 VAPID): without the pair, phone reminders are off and Settings says so.
-    VAPID_PUBLIC_KEY: z
-      .string()
-      .trim()
-      .regex(/^[A-Za-z0-9_-]{87}$/, "VAPID_PUBLIC_KEY must be the URL-safe base64 of a 65-byte P-256 public key (npx web-push generate-vapid-keys)")
-      .optional(),
-    VAPID_PRIVATE_KEY: z
-      .string()
-      .trim()
-      .regex(/^[A-Za-z0-9_-]{43}$/, "VAPID_PRIVATE_KEY must be the URL-safe base64 of a 32-byte P-256 private key")
-      .optional(),
-    VAPID_SUBJECT: z
-      .string()
-      .trim()
-      .regex(/^(mailto:[^\s@]+@[^\s@]+|https:\/\/\S+)$/, "VAPID_SUBJECT must be a mailto: address or an https: URL where push services can reach you")
-      .optional(),
+    VAPID_PUBLIC_KEY: z.preprocess(
+      emptyAsUnset,
+      z.string().trim().regex(/^[A-Za-z0-9_-]{87}$/, "VAPID_PUBLIC_KEY must be the URL-safe base64 of a 65-byte P-256 public key (npx web-push generate-vapid-keys)").optional(),
+    ),
+    VAPID_PRIVATE_KEY: z.preprocess(
+      emptyAsUnset,
+      z.string().trim().regex(/^[A-Za-z0-9_-]{43}$/, "VAPID_PRIVATE_KEY must be the URL-safe base64 of a 32-byte P-256 private key").optional(),
+    ),
+    VAPID_SUBJECT: z.preprocess(
+      emptyAsUnset,
+      z.string().trim().regex(/^(mailto:[^\s@]+@[^\s@]+|https:\/\/\S+)$/, "VAPID_SUBJECT must be a mailto: address or an https: URL where push services can reach you").optional(),
+    ),
     // The local fake push service in tests and the demo listens on loopback over http; real ones are https.
     PUSH_ALLOW_LOOPBACK: z.enum(["on", "off"]).default("off"),
   })
