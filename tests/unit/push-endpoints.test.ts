@@ -3,7 +3,7 @@ import { isAcceptedEndpoint } from "@/lib/server/push";
 
 // The server POSTs to whatever endpoint a phone hands it, so only the browsers' own push services are accepted
 // (https, default port); the local fake on loopback only when PUSH_ALLOW_LOOPBACK is on (it is off here).
-// Hosts as the browsers' push subscriptions name them (common practice, from subscriptions seen in the wild).
+// Hosts as the browsers' push subscriptions name them: from memory of the vendors' documentation, not checked here.
 
 describe("push endpoints the server will send to", () => {
   it.each([
