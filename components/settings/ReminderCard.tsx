@@ -68,7 +68,10 @@ export function ReminderCard() {
       {state === null ? <p className="text-label text-ink-soft">Checking…</p> : null}
       {state === "offline" ? <Notice>Setting up reminders needs a connection. Try again when you have signal.</Notice> : null}
       {ready && !state.available ? (
-        <Notice>Phone reminders are turned off on this server: the farm&apos;s administrator has not set up its push keys yet. The daily e-mail still works.</Notice>
+        // Not the person's doing and nothing is broken: said calmly, not as an error.
+        <p className="rounded-xl bg-rime-50 px-3 py-2 text-label text-ink">
+          Phone reminders are turned off on this server: the farm&apos;s administrator has not set up its push keys yet. The daily e-mail still works.
+        </p>
       ) : null}
       {ready && state.available && support && !support.supported ? (
         <Notice>This browser cannot show reminders. On an iPhone, add Rimebook to the Home Screen first, then open it from there.</Notice>

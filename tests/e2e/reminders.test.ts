@@ -193,3 +193,25 @@ describe("reminders on the phone, in the browser", () => {
     expect(errors.filter((e) => !/status of (401|403|404)/.test(e))).toEqual([]);
   });
 });
+
+describe("a server without VAPID keys", () => {
+  it("starts, and Settings says reminders are off instead of offering them", async () => {
+    const bare = await startApp({ name: "reminders-off", seed: true });
+    try {
+      const ctx = await phoneContext(browser, bare.origin);
+      const p = await ctx.newPage();
+      const pageErrors = watchErrors(p);
+      await signIn(p, helper);
+      await p.goto("/settings");
+      await p.getByText(/^Phone reminders are turned off on this server/).waitFor();
+      expect(await p.getByRole("button", { name: "Remind me on this phone" }).count()).toBe(0);
+      await shoot(p, "reminders-settings-server-off");
+      const cron = await fetch(`${bare.origin}/api/cron/digest`, { method: "POST", headers: { authorization: `Bearer ${bare.env.CRON_SECRET}` } });
+      expect((await cron.json()).reminders).toMatchObject({ enabled: false, sent: 0 });
+      expect(pageErrors.filter((e) => !/status of (401|403|404)/.test(e))).toEqual([]);
+      await ctx.close();
+    } finally {
+      await bare.stop();
+    }
+  });
+});
