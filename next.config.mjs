@@ -69,7 +69,7 @@ const nextConfig = {
   distDir,
   poweredByHeader: false,
   // knex resolves every dialect driver dynamically; keep it (and the native sqlite binding) out of the bundle.
-  serverExternalPackages: ["knex", "better-sqlite3", "pg", "smtp-server", "nodemailer"],
+  serverExternalPackages: ["knex", "better-sqlite3", "pg", "smtp-server", "nodemailer", "web-push"],
   // `next dev` runs on Turbopack; production builds use webpack (`next build --webpack`) for the service worker.
   turbopack: {},
   // The e2e harness builds with NEXT_SKIP_TYPECHECK=1: CI runs `tsc --noEmit` as its own step just before.

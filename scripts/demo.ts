@@ -4,6 +4,7 @@ import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { randomBytes } from "node:crypto";
 import fs from "node:fs";
 import path from "node:path";
+import webpush from "web-push";
 import { demoFarm, demoMembers } from "../db/seeds/data/demo-farm";
 
 const port = process.env.PORT ?? "3000";
@@ -20,6 +21,15 @@ const cronFile = path.join("data", ".cron-secret");
 if (!process.env.CRON_SECRET) {
   if (!fs.existsSync(cronFile)) fs.writeFileSync(cronFile, randomBytes(24).toString("hex"), { mode: 0o600 });
   process.env.CRON_SECRET = fs.readFileSync(cronFile, "utf8").trim();
+}
+// Phone reminders need a VAPID key pair (RFC 8292): make one once and keep it with the demo data too.
+// Phones subscribe with the public key, so a new pair would silently orphan every reminder.
+const vapidFile = path.join("data", ".vapid-keys.json");
+if (!process.env.VAPID_PUBLIC_KEY && !process.env.VAPID_PRIVATE_KEY) {
+  if (!fs.existsSync(vapidFile)) fs.writeFileSync(vapidFile, JSON.stringify(webpush.generateVAPIDKeys()), { mode: 0o600 });
+  const pair = JSON.parse(fs.readFileSync(vapidFile, "utf8")) as { publicKey: string; privateKey: string };
+  process.env.VAPID_PUBLIC_KEY = pair.publicKey;
+  process.env.VAPID_PRIVATE_KEY = pair.privateKey;
 }
 process.env.APP_ORIGIN ??= `http://localhost:${port}`;
 // The demo asks for the local mailbox page (every reset and invite link, for this computer only).

@@ -1,6 +1,7 @@
 /// <reference lib="webworker" />
 import { defaultCache } from "@serwist/next/worker";
 import { ExpirationPlugin, NetworkFirst, NetworkOnly, Serwist, type PrecacheEntry, type SerwistGlobalConfig } from "serwist";
+import { listenForReminders } from "./reminders";
 
 // Rimebook's service worker: the app shell and every app route are precached per build (listed in
 // next.config.mjs), so each screen opens in a barn with no signal. Farm data never lives here: it
@@ -80,3 +81,5 @@ const serwist: Serwist = new Serwist({
 });
 
 serwist.addEventListeners();
+// Phone reminders (Web Push): sw/reminders.ts.
+listenForReminders();

@@ -19,6 +19,7 @@ import { useMember } from "@/components/season/use-member";
 import { countDaysInMonth, describeMonthDay, joinMonthDay, monthNames, splitMonthDay } from "./frost-date";
 import { Notice } from "@/components/season/Notice";
 import { FarmSwitcherCard, PasswordCard, ProfileCard } from "./AccountCards";
+import { ReminderCard } from "./ReminderCard";
 
 const FarmForm = FarmSettings.pick({ name: true, last_frost_date: true, location_note: true, temperature_unit: true, weekly_check_days: true, timezone: true });
 type FarmFormValues = z.input<typeof FarmForm>;
@@ -37,6 +38,7 @@ export function SettingsScreen() {
       {identity ? <FarmSwitcherCard identity={identity} /> : null}
       {identity ? <FarmCard key={identity.farm.id} farm={identity.farm} canEdit={can("farm.update")} /> : null}
       {identity ? <DigestCard userId={identity.user.id} email={identity.user.email} /> : null}
+      {identity ? <ReminderCard key={`${identity.user.id}:${identity.farm.id}`} /> : null}
       {identity ? <ProfileCard key={identity.user.id} identity={identity} /> : null}
       {identity ? <PasswordCard /> : null}
       <Card>

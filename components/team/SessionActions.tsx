@@ -3,6 +3,9 @@
 import { useState } from "react";
 import { Button } from "@/components/ui/Button";
 import { FormMessage, sendJson } from "@/components/auth/form-kit";
+import { getLocalDb } from "@/lib/client/db";
+import { deviceIdOf } from "@/lib/client/meta";
+import { dropPushSubscription } from "@/lib/client/reminders";
 
 /** Sign out here, or on every phone and computer (a lost phone, a shared tablet). */
 export function SessionActions() {
@@ -13,7 +16,10 @@ export function SessionActions() {
   async function signOut(where: "here" | "everywhere") {
     setBusy(where);
     setMessage(null);
-    const res = await sendJson(where === "here" ? "/api/auth/sign-out" : "/api/auth/sign-out-everywhere", {});
+    // Signing out here also stops this phone's reminders (the server drops them by the phone's id).
+    const deviceId = await deviceIdOf(getLocalDb());
+    const res = await sendJson(where === "here" ? "/api/auth/sign-out" : "/api/auth/sign-out-everywhere", where === "here" ? { deviceId } : {});
+    if (res.ok || res.status === 401) await dropPushSubscription();
     setBusy(null);
     if (!res.ok && res.status !== 401) {
       setMessage(res.error.message);

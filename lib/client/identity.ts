@@ -1,6 +1,7 @@
 import { farmTables, getLocalDb, type RimebookDB } from "./db";
 import { META, readMeta, writeMeta, type PhoneIdentity } from "./meta";
 import { getSyncEngine, setSyncEngine } from "./sync";
+import { dropPushSubscription } from "./reminders";
 
 // Who is using this phone. Kept in the phone store so the app opens with no signal; refreshed from
 // GET /api/me when there is. Sign-out empties the phone store and the caches (after a warning when
@@ -66,10 +67,13 @@ export async function signOut({ force = false, fetch: f = fetch, baseUrl = "", d
   const photos = await db.pending_photos.count();
   if ((pending > 0 || photos > 0) && !force) return { ok: false, pending, photos };
   try {
-    await f(`${baseUrl}/api/auth/sign-out`, { method: "POST", credentials: "same-origin" });
+    // The phone's id lets the server drop this phone's reminders with the session.
+    const deviceId = await readMeta<string>(db, META.deviceId);
+    await f(`${baseUrl}/api/auth/sign-out`, { method: "POST", credentials: "same-origin", headers: { "content-type": "application/json" }, body: JSON.stringify(deviceId ? { deviceId } : {}) });
   } catch {
     /* offline: the cookie is cleared server-side at its expiry; the phone forgets it now */
   }
+  await dropPushSubscription();
   getSyncEngine().stop();
   setSyncEngine(null);
   await wipePhoneStore(db);

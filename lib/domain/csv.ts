@@ -415,3 +415,11 @@ export function escapeCsvCell<T>(value: T): T | string {
 export function writeCsv(columns: readonly string[], rows: readonly (readonly unknown[])[]): string {
   return Papa.unparse({ fields: columns.map(escapeCsvCell), data: rows.map((r) => r.map(escapeCsvCell)) }, { escapeFormulae: false, newline: "\r\n" });
 }
+
+/** The farm's wall clock at `at`: its calendar day, hour (0–23) and ISO weekday (Monday 1 … Sunday 7). */
+export function readZonedClock(at: Date, zone: string): { day: string; hour: number; weekday: number } {
+  const parts: Record<string, string> = {};
+  for (const p of zoneFormatter(zone).formatToParts(at)) parts[p.type] = p.value;
+  const day = `${parts.year}-${parts.month}-${parts.day}`;
+  return { day, hour: Number(parts.hour), weekday: new Date(`${day}T12:00:00Z`).getUTCDay() || 7 };
+}

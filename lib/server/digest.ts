@@ -14,12 +14,13 @@ import {
   mouldCaution,
   type Excursion,
   type TemperatureUnit,
+  type TodaysRound,
 } from "@/lib/domain";
 import type { TemperatureBand } from "@/lib/schemas/protocol";
 import { vocabularyLabels, type Mould } from "@/lib/schemas/vocabulary";
 import { appLink, sendMail, type Mail } from "./mail";
 import { parseRow } from "./sync/rows";
-import { farmWindowClock, loadBagRowSources, loadSpeciesWindows } from "./bag-rows";
+import { farmWindowClock, loadBagRowSources, loadSpeciesWindows, type BagRowSourcesWithReadings } from "./bag-rows";
 
 // The daily digest: once per farm per day, to the members who asked for it, what the bags and
 // cold stores need today. The same lib/domain round the phone shows on Today, worked out on the
@@ -86,6 +87,25 @@ async function loadLastChecks(db: Knex, farmId: string): Promise<Map<string, Las
   return new Map(rows.map((r) => [String(r.bag_id), parseRow("checks", r) as unknown as LastCheckRow]));
 }
 
+/**
+ * The farm's round for its `day`, as Today shows it on the phone (lib/domain, effective windows on the farm's
+ * clock): the digest's bags to check and the phone reminder's counts. `sources`/`lastChecks` when already read.
+ */
+export async function loadFarmRound(
+  db: Knex,
+  farm: { id: string; timezone: string; weekly_check_days: number | null },
+  day: string,
+  now: Date,
+  sources?: BagRowSourcesWithReadings,
+  lastChecks?: Map<string, LastCheckRow>,
+): Promise<TodaysRound> {
+  const s = sources ?? (await loadBagRowSources(db, farm.id, day));
+  const checks = lastChecks ?? (await loadLastChecks(db, farm.id));
+  // The farm's own history turns bags daily as on Today (same rule, same rows): digest and reminders agree with it.
+  const farmWindows = await loadSpeciesWindows(db, farm.id, s, day);
+  return buildRoundFromRows(s, checks, day, cadenceFor(farm.weekly_check_days), farmWindowClock(farm.timezone, now), farmWindows);
+}
+
 /** What the farm's digest for `day` says; `now` bounds the last day of readings. */
 export async function buildFarmDigest(db: Knex, farmId: string, day: string, now: Date): Promise<FarmDigest> {
   const farmRow = await db("farms").where({ id: farmId }).first("id", "name", "timezone", "temperature_unit", "weekly_check_days");
@@ -121,9 +141,7 @@ export async function buildFarmDigest(db: Knex, farmId: string, day: string, now
             : "Check daily and pull when the first roots show.",
     }));
   const listed = new Set(rows.filter((r) => (r.state === "overdue" && r.window?.closesOn) || (r.state === "window_open" && r.window?.opensOn === day)).map((r) => r.id));
-  // The farm's own history turns bags daily as on Today (same rule, same rows).
-  const farmWindows = await loadSpeciesWindows(db, farmId, sources, day);
-  const round = buildRoundFromRows(sources, lastChecks, day, cadenceFor(farmRow.weekly_check_days), clock, farmWindows);
+  const round = await loadFarmRound(db, { id: farmId, timezone, weekly_check_days: farmRow.weekly_check_days }, day, now, sources, lastChecks);
   const due = round.items
     .filter((i) => !listed.has(i.bag.id))
     .map((i) => ({

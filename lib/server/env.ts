@@ -1,6 +1,16 @@
 import "server-only";
 import { z } from "zod";
 
+/** An empty value (`VAPID_PRIVATE_KEY=` in a compose file) means unset: reminders off, not a broken start. */
+const emptyAsUnset = (v: unknown) => (typeof v === "string" && v.trim() === "" ? undefined : v);
+
+/** Who push services may contact about our messages: the app's https address, else the sender's mailbox. */
+function vapidSubjectFor(origin: string, mailFrom: string): string {
+  if (origin.startsWith("https://")) return new URL(origin).origin;
+  const address = /<([^>]+)>/.exec(mailFrom)?.[1] ?? mailFrom;
+  return `mailto:${address.includes("@") ? address.trim() : "rimebook@localhost"}`;
+}
+
 // Read once, validated; defaults serve the demo on the embedded SQLite file.
 const EnvSchema = z
   .object({
@@ -17,6 +27,21 @@ const EnvSchema = z
     MAILBOX_PAGE: z.enum(["on", "off"]).optional(),
     MAILBOX_PAGE_REMOTE: z.enum(["on", "off"]).optional(),
     MAILBOX_DIR: z.string().min(1).default("data/mailbox"), // where the local SMTP fake stores captured mail
+    // Web Push (RFC 8292 VAPID): without the pair, phone reminders are off and Settings says so.
+    VAPID_PUBLIC_KEY: z.preprocess(
+      emptyAsUnset,
+      z.string().trim().regex(/^[A-Za-z0-9_-]{87}$/, "VAPID_PUBLIC_KEY must be the URL-safe base64 of a 65-byte P-256 public key (npx web-push generate-vapid-keys)").optional(),
+    ),
+    VAPID_PRIVATE_KEY: z.preprocess(
+      emptyAsUnset,
+      z.string().trim().regex(/^[A-Za-z0-9_-]{43}$/, "VAPID_PRIVATE_KEY must be the URL-safe base64 of a 32-byte P-256 private key").optional(),
+    ),
+    VAPID_SUBJECT: z.preprocess(
+      emptyAsUnset,
+      z.string().trim().regex(/^(mailto:[^\s@]+@[^\s@]+|https:\/\/\S+)$/, "VAPID_SUBJECT must be a mailto: address or an https: URL where push services can reach you").optional(),
+    ),
+    // The local fake push service in tests and the demo listens on loopback over http; real ones are https.
+    PUSH_ALLOW_LOOPBACK: z.enum(["on", "off"]).default("off"),
   })
   .transform((env, ctx) => {
     // `next build` loads route modules to collect page data; the secret is only needed when serving.
@@ -24,6 +49,10 @@ const EnvSchema = z
     const production = env.NODE_ENV === "production" && !building;
     if (production && !env.SESSION_SECRET) {
       ctx.addIssue({ code: "custom", path: ["SESSION_SECRET"], message: "SESSION_SECRET is required in production" });
+      return z.NEVER;
+    }
+    if (!!env.VAPID_PUBLIC_KEY !== !!env.VAPID_PRIVATE_KEY) {
+      ctx.addIssue({ code: "custom", path: ["VAPID_PRIVATE_KEY"], message: "Set both VAPID_PUBLIC_KEY and VAPID_PRIVATE_KEY, or neither (phone reminders off)" });
       return z.NEVER;
     }
     return {
@@ -35,6 +64,12 @@ const EnvSchema = z
       secureCookies: env.APP_ORIGIN.startsWith("https://"),
       mailboxPage: env.MAILBOX_PAGE === "on",
       mailboxRemote: env.MAILBOX_PAGE_REMOTE === "on",
+      vapid:
+        env.VAPID_PUBLIC_KEY && env.VAPID_PRIVATE_KEY
+          ? { publicKey: env.VAPID_PUBLIC_KEY, privateKey: env.VAPID_PRIVATE_KEY, subject: env.VAPID_SUBJECT ?? vapidSubjectFor(env.APP_ORIGIN, env.MAIL_FROM) }
+          : null,
+      // Never on an https deployment: it would let a subscription point the server at its own loopback ports.
+      pushAllowLoopback: env.PUSH_ALLOW_LOOPBACK === "on" && !env.APP_ORIGIN.startsWith("https://"),
     };
   });
 

@@ -5,6 +5,7 @@ import { getDb } from "@/lib/server/db";
 import { env } from "@/lib/server/env";
 import { route } from "@/lib/server/http";
 import { runDigestForAllFarms } from "@/lib/server/digest";
+import { runReminders } from "@/lib/server/reminders";
 
 export const dynamic = "force-dynamic";
 
@@ -26,14 +27,27 @@ function assertCronSecret(req: Request): void {
   }
 }
 
-/** Sends each farm's daily digest for its own today; a second call the same day sends nothing. */
+/**
+ * Sends each farm's daily digest for its own today (a second call the same day sends nothing), and in the same
+ * pass the phone reminders whose hour has come (call it hourly for those).
+ */
 const runDigest = route(async (req) => {
   assertCronSecret(req);
   const outcomes = await runDigestForAllFarms(getDb());
   // How many, never which: the caller is a scheduler, and farm ids are no business of its logs.
   const count = (status: (typeof outcomes)[number]["status"]) => outcomes.filter((o) => o.status === status).length;
+  const reminders = await runReminders(getDb());
   return NextResponse.json(
-    { ok: true, farms: outcomes.length, sent: count("sent"), alreadySent: count("already_sent"), nothingDue: count("nothing_due"), noRecipients: count("no_recipients"), failed: count("failed") },
+    {
+      ok: true,
+      farms: outcomes.length,
+      sent: count("sent"),
+      alreadySent: count("already_sent"),
+      nothingDue: count("nothing_due"),
+      noRecipients: count("no_recipients"),
+      failed: count("failed"),
+      reminders,
+    },
     { headers: { "cache-control": "no-store" } },
   );
 });
