@@ -1,6 +1,7 @@
 import { farmTables, getLocalDb, type RimebookDB } from "./db";
 import { META, readMeta, writeMeta, type PhoneIdentity } from "./meta";
 import { getSyncEngine, setSyncEngine } from "./sync";
+import { tallyWaiting, type WaitingTally } from "./waiting";
 
 // Who is using this phone. Kept in the phone store so the app opens with no signal; refreshed from
 // GET /api/me when there is. Sign-out empties the phone store and the caches (after a warning when
@@ -54,7 +55,7 @@ export async function refreshIdentity({ fetch: f = fetch, baseUrl = "", db = get
   return me;
 }
 
-export type SignOutResult = { ok: true } | { ok: false; pending: number; photos: number };
+export type SignOutResult = { ok: true } | { ok: false; waiting: WaitingTally };
 
 /**
  * Signs out: refuses (with the counts, so the screen can warn) while unsent work is on the phone,
@@ -62,9 +63,9 @@ export type SignOutResult = { ok: true } | { ok: false; pending: number; photos:
  * this farm's data; the precached app shell (no farm data in it) stays so the app still opens.
  */
 export async function signOut({ force = false, fetch: f = fetch, baseUrl = "", db = getLocalDb() }: Net & { force?: boolean } = {}): Promise<SignOutResult> {
-  const pending = await db.outbox.where("status").equals("pending").count();
-  const photos = await db.pending_photos.count();
-  if ((pending > 0 || photos > 0) && !force) return { ok: false, pending, photos };
+  // Counted as recorded (as the pill does); a photo the server refused is still only here, so it counts too.
+  const waiting = tallyWaiting(await db.outbox.where("status").anyOf("pending", "sending").sortBy("n"), await db.pending_photos.count());
+  if (waiting.records + waiting.photos > 0 && !force) return { ok: false, waiting };
   try {
     await f(`${baseUrl}/api/auth/sign-out`, { method: "POST", credentials: "same-origin" });
   } catch {
