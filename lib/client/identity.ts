@@ -1,3 +1,4 @@
+import { SCREENS_CACHE_PREFIX } from "./cache-names";
 import { farmTables, getLocalDb, type RimebookDB } from "./db";
 import { META, readMeta, writeMeta, type PhoneIdentity } from "./meta";
 import { getSyncEngine, setSyncEngine } from "./sync";
@@ -87,10 +88,10 @@ export async function wipePhoneStore(db: RimebookDB = getLocalDb()): Promise<voi
   });
 }
 
-/** Runtime caches (API answers, visited pages, photos) go; the build's precache stays. */
+/** Runtime caches (API answers, visited pages, photos) go; the build's precache and screen payloads (no farm data) stay. */
 export async function clearFarmCaches(): Promise<void> {
   if (typeof caches === "undefined") return;
   for (const name of await caches.keys()) {
-    if (!name.includes("precache")) await caches.delete(name);
+    if (!name.includes("precache") && !name.startsWith(SCREENS_CACHE_PREFIX)) await caches.delete(name);
   }
 }
