@@ -79,7 +79,7 @@ describe("switching farms on the phone", () => {
     const lot = await createLot({ species: "Baptisia australis", year: 2025 });
     net.state.online = false;
     const result = await switchFarm(farmB, opts());
-    expect(result).toEqual({ ok: false, reason: "unsent", farmName: "Bramblewick Native Nursery", left: { pending: 1, refused: 0, photos: 0 } });
+    expect(result).toEqual({ ok: false, reason: "unsent", farmName: "Bramblewick Native Nursery", left: { pending: 1, refused: 0, photos: 0, waiting: { records: 1, photos: 0, parts: [{ name: "lot.create", n: 1 }] } } });
     expect(await phone.db.lots.get(lot.id)).toBeTruthy();
     expect(await phone.db.outbox.where("status").equals("pending").count()).toBe(1);
     expect((await loadIdentity(phone.db))?.farm.id).toBe(grower.farmId);
