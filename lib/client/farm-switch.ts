@@ -3,7 +3,7 @@ import { getLocalDb, type RimebookDB } from "./db";
 import { adoptIdentity, clearFarmCaches, loadIdentity } from "./identity";
 import type { PhoneIdentity } from "./meta";
 import { getSyncEngine, type SyncEngine } from "./sync";
-import { tallyWaiting, type WaitingTally } from "./waiting";
+import { readWaiting, type WaitingTally } from "./waiting";
 
 // Opening another farm the person belongs to. The phone keeps ONE farm's copy: adopting another
 // farm's identity empties it and marks unsent work as refused. So a switch first tries to send what
@@ -27,14 +27,9 @@ type Options = { fetch?: typeof fetch; baseUrl?: string; db?: RimebookDB; engine
 
 /** What of the current farm exists only on this phone. */
 export async function countLeftBehind(db: RimebookDB = getLocalDb()): Promise<LeftBehind> {
-  const [entries, refused, photos] = await Promise.all([
-    db.outbox.where("status").anyOf("pending", "sending").sortBy("n"),
-    db.outbox.where("status").equals("rejected").count(),
-    db.pending_photos.count(),
-  ]);
   // A photo the server refused is still only on this phone: it holds the switch like a waiting one.
-  const waiting = tallyWaiting(entries, photos);
-  return { pending: waiting.records, refused, photos, waiting };
+  const [waiting, refused] = await Promise.all([readWaiting(db, { refusedPhotosToo: true }), db.outbox.where("status").equals("rejected").count()]);
+  return { pending: waiting.records, refused, photos: waiting.photos, waiting };
 }
 
 const isClear = (l: LeftBehind) => l.pending + l.refused + l.photos === 0;

@@ -2,7 +2,7 @@ import { SCREENS_CACHE_PREFIX } from "./cache-names";
 import { farmTables, getLocalDb, type RimebookDB } from "./db";
 import { META, readMeta, writeMeta, type PhoneIdentity } from "./meta";
 import { getSyncEngine, setSyncEngine } from "./sync";
-import { tallyWaiting, type WaitingTally } from "./waiting";
+import { readWaiting, type WaitingTally } from "./waiting";
 
 // Who is using this phone. Kept in the phone store so the app opens with no signal; refreshed from
 // GET /api/me when there is. Sign-out empties the phone store and the caches (after a warning when
@@ -65,7 +65,7 @@ export type SignOutResult = { ok: true } | { ok: false; waiting: WaitingTally };
  */
 export async function signOut({ force = false, fetch: f = fetch, baseUrl = "", db = getLocalDb() }: Net & { force?: boolean } = {}): Promise<SignOutResult> {
   // Counted as recorded (as the pill does); a photo the server refused is still only here, so it counts too.
-  const waiting = tallyWaiting(await db.outbox.where("status").anyOf("pending", "sending").sortBy("n"), await db.pending_photos.count());
+  const waiting = await readWaiting(db, { refusedPhotosToo: true });
   if (waiting.records + waiting.photos > 0 && !force) return { ok: false, waiting };
   try {
     await f(`${baseUrl}/api/auth/sign-out`, { method: "POST", credentials: "same-origin" });

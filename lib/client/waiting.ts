@@ -48,8 +48,11 @@ export function splitPhotos(photos: readonly Pick<PendingPhoto, "error">[]): { w
   return { waiting: photos.length - refused, refused };
 }
 
-/** The phone store's waiting work, counted as recorded. */
-export async function readWaiting(db: RimebookDB = getLocalDb()): Promise<WaitingTally> {
+/**
+ * The phone store's waiting work, counted as recorded. With `refusedPhotosToo`, photos the server refused
+ * count as well: before the phone store is emptied (sign-out, farm switch) they are still only here.
+ */
+export async function readWaiting(db: RimebookDB = getLocalDb(), { refusedPhotosToo = false } = {}): Promise<WaitingTally> {
   const [entries, photos] = await Promise.all([db.outbox.where("status").anyOf("pending", "sending").sortBy("n"), db.pending_photos.toArray()]);
-  return tallyWaiting(entries, splitPhotos(photos).waiting);
+  return tallyWaiting(entries, refusedPhotosToo ? photos.length : splitPhotos(photos).waiting);
 }
