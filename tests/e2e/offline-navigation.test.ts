@@ -98,7 +98,7 @@ describe("moving between screens with no signal", () => {
       await page.waitForURL(/\/scan\?saved=/);
       await page.getByTestId("saved-notice").waitFor();
       if (i === 0) await shoot(page, "offnav-01-saved-offline-no-reload");
-      await page.getByRole("link", { name: /today.s round/i }).click();
+      await page.getByRole("link", { name: "Today's round", exact: true }).click();
       await page.waitForURL(/\/today$/);
       await page.getByTestId("round-bag").first().waitFor();
     }
@@ -110,6 +110,16 @@ describe("moving between screens with no signal", () => {
     expect(rscFallbacks).toEqual([]);
     await waitForPill(page, /Offline · 3 waiting/);
     await shoot(page, "offnav-02-three-checks-waiting");
+
+    // The control: without the stored payloads the same tap falls back to a full page load (as before this fix).
+    await page.evaluate(async () => {
+      for (const name of await caches.keys()) if (name.startsWith("rimebook-screens-")) await caches.delete(name);
+    });
+    await page.getByRole("link", { name: /scan a bag/i }).click();
+    await page.waitForURL(/\/scan/);
+    await page.locator("#typed-code").waitFor();
+    expect(documentLoads.length).toBeGreaterThan(0);
+    expect(await page.evaluate(() => (window as unknown as { __rimebookLoaded?: string }).__rimebookLoaded)).toBeUndefined();
 
     await context.setOffline(false);
     await page.evaluate(() => window.dispatchEvent(new Event("online")));
@@ -154,6 +164,9 @@ describe("sync counts a person can trust", () => {
     expect(text.match(/No signal/g) ?? []).toHaveLength(1);
     expect(text).not.toMatch(/Photos waiting|Waiting to send \d/);
     await dialog.screenshot({ path: path.join(path.dirname(await shoot(page, "offnav-03-counts-page")), "offnav-04-counts-details.png") });
+    await page.setViewportSize({ width: 1280, height: 800 });
+    await shoot(page, "offnav-04-counts-details-desktop");
+    await page.setViewportSize(PHONE.viewport);
     await dialog.getByRole("button", { name: "Close" }).click();
 
     await context.setOffline(false);
@@ -177,6 +190,8 @@ describe("sync counts a person can trust", () => {
     expect(await where.textContent()).not.toMatch(/signal/);
     await expect(page.getByText(/saved on the farm/).count()).resolves.toBe(1);
     await shoot(page, "offnav-05-bag-saved-online");
+    await page.setViewportSize({ width: 1280, height: 800 });
+    await shoot(page, "offnav-05-bag-saved-online-desktop");
     await context.close();
   }, 180_000);
 });
