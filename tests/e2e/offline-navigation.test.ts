@@ -211,6 +211,14 @@ describe("without a service worker, and before sign-in", () => {
     }
     expect(await page.evaluate(() => Boolean(navigator.serviceWorker?.controller))).toBe(false);
     expect(errors.filter((e) => /pageerror|waiting/.test(e))).toEqual([]);
+    // The control: the framework's own registration, which used to run on every page, fails in this browser.
+    const helperRegistration = await page.evaluate(() =>
+      (window as unknown as { serwist?: { register: () => Promise<unknown> } }).serwist?.register().then(
+        () => "registered",
+        (e: unknown) => String(e),
+      ),
+    );
+    expect(helperRegistration).not.toBe("registered");
     await context.close();
   }, 120_000);
 
