@@ -57,6 +57,8 @@ const withSerwist = withSerwistInit({
   disable: process.env.NODE_ENV === "development",
   // Reloading on reconnect would throw away a half-filled check; the sync loop handles reconnects.
   reloadOnOnline: false,
+  // Registered by lib/client/service-worker.ts, which survives a browser that has none or blocks it.
+  register: false,
   cacheOnNavigation: false,
   // Fonts, scripts and styles come from the webpack build; routes and icons are listed here.
   additionalPrecacheEntries: [...routes.map((url) => ({ url, revision })), ...publicAssets()],

@@ -18,8 +18,9 @@ export async function proxy(req: NextRequest) {
   return NextResponse.redirect(url);
 }
 
-// Deny by default: every page except the public ones (landing, sign-in/up, invite, reset, the dev
-// mailbox), the API (each handler answers 401 itself), framework assets and files with an extension.
+// Deny by default: every page except the public ones (landing, sign-in/up, invite, reset, the "no
+// signal" page, which holds no farm data and is what a phone falls back to, the dev mailbox), the API
+// (each handler answers 401 itself), framework assets and files with an extension.
 export const config = {
-  matcher: ["/((?!api/|_next/|sign-in|sign-up|invite/|reset|dev/|.*\\.[a-z0-9]+$).+)"],
+  matcher: ["/((?!api/|_next/|sign-in|sign-up|invite/|reset|offline|dev/|.*\\.[a-z0-9]+$).+)"],
 };

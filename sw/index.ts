@@ -2,6 +2,7 @@
 import { defaultCache } from "@serwist/next/worker";
 import { ExpirationPlugin, NetworkFirst, NetworkOnly, Serwist, type PrecacheEntry, type SerwistGlobalConfig } from "serwist";
 import { listenForReminders } from "./reminders";
+import { screenPayloads } from "./screens";
 
 // Rimebook's service worker: the app shell and every app route are precached per build (listed in
 // next.config.mjs), so each screen opens in a barn with no signal. Farm data never lives here: it
@@ -15,6 +16,9 @@ declare global {
 declare const self: ServiceWorkerGlobalScope;
 
 const manifest = self.__SW_MANIFEST ?? [];
+
+/** Each screen's router payload, so moving between screens offline needs no reload (sw/screens.ts). */
+const screens = screenPayloads(manifest);
 
 /** Placeholder id of a detail route's prerendered shell (lib/client/route-id.ts). */
 const SHELL_ID = "_";
@@ -33,6 +37,8 @@ const serwist: Serwist = new Serwist({
   clientsClaim: true,
   navigationPreload: false,
   runtimeCaching: [
+    // The router's requests for a screen (client-side navigation), answered from this build's payloads.
+    screens.runtimeCaching,
     // Sync, sign-in and uploads talk to the server or fail: a cached answer would be a lie.
     { matcher: ({ url, sameOrigin }) => sameOrigin && (url.pathname.startsWith("/api/sync/") || url.pathname.startsWith("/api/auth/")), handler: new NetworkOnly() },
     { matcher: ({ request }) => request.method !== "GET", handler: new NetworkOnly() },
@@ -83,3 +89,6 @@ const serwist: Serwist = new Serwist({
 serwist.addEventListeners();
 // Phone reminders (Web Push): sw/reminders.ts.
 listenForReminders();
+
+self.addEventListener("install", (event) => event.waitUntil(screens.store()));
+self.addEventListener("activate", (event) => event.waitUntil(screens.dropOldBuilds()));

@@ -9,6 +9,8 @@ import { z } from "zod";
 import { BagInput } from "@/lib/schemas/bag";
 import { vocabularyLabels } from "@/lib/schemas/vocabulary";
 import { createBag } from "@/lib/client/repo";
+import { useOnline, useRecordSync } from "@/lib/client/hooks";
+import { savedWhereWords } from "@/components/shell/sync-words";
 import { formatBagCode, reconcileProtocol } from "@/lib/domain";
 import type { Lot } from "@/lib/schemas/lot";
 import { Button, buttonClass } from "@/components/ui/Button";
@@ -92,6 +94,8 @@ export function NewBagForm() {
 function NewBagFormBody({ sources, today, initialLotId }: { sources: BagRowSources; today: string; initialLotId: string | null }) {
   const router = useRouter();
   const [saved, setSaved] = useState<{ id: string; code: string } | null>(null);
+  const savedWhere = useRecordSync("bag.create", saved?.id);
+  const online = useOnline();
   const [saveError, setSaveError] = useState<string | null>(null);
   const existingCodes = useMemo(() => sources.bags.map((b) => b.code), [sources.bags]);
   const initialLot = sources.lots.find((l) => l.id === initialLotId) ?? null;
@@ -172,9 +176,11 @@ function NewBagFormBody({ sources, today, initialLotId }: { sources: BagRowSourc
     return (
       <Card className="space-y-4" aria-live="polite">
         <p className="text-title font-bold text-moss-700">
-          <span aria-hidden="true">✓ </span>Bag {formatBagCode(saved.code)} saved on this phone
+          <span aria-hidden="true">✓ </span>Bag {formatBagCode(saved.code)} saved {savedWhere === "sent" ? "on the farm" : "on this phone"}
         </p>
-        <p className="text-body text-ink-soft">It goes to the farm when the phone next has signal. Print its label before it goes in the fridge.</p>
+        <p className="text-body text-ink-soft" data-testid="saved-where">
+          {savedWhereWords(savedWhere, online)} Print its label before it goes in the fridge.
+        </p>
         <div className="flex flex-col gap-2">
           <Link href={`/labels?ids=${encodeURIComponent(saved.id)}`} className={buttonClass("primary", "lg")}>
             Print label

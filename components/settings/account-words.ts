@@ -8,7 +8,7 @@ export function describeLeftBehind(farmName: string, left: LeftBehind): string {
   const parts: string[] = [];
   if (left.pending + left.photos > 0) {
     parts.push(
-      `${unsentWords({ pending: left.pending, photos: left.photos })} still only on this phone and could not be sent to ${farmName} just now. ` +
+      `${unsentWords(left.waiting)} still only on this phone and could not be sent to ${farmName} just now. ` +
         `Switching farms empties this phone's copy of the farm, so Rimebook will not switch until ${left.pending + left.photos === 1 ? "it has" : "they have"} gone up. ` +
         `Find signal, wait for “Synced” at the top, then switch.`,
     );

@@ -4,6 +4,7 @@ import Link from "next/link";
 import { usePathname, useRouter } from "next/navigation";
 import { useEffect, useState } from "react";
 import { signOut } from "@/lib/client/identity";
+import type { WaitingTally } from "@/lib/client/waiting";
 import { unsentWords } from "./sync-words";
 import { BagsGlyph, MoreGlyph, ScanGlyph, SeasonGlyph, TodayGlyph } from "./NavIcons";
 
@@ -88,14 +89,14 @@ function NavMenu({ which, onClose }: { which: "season" | "more"; onClose: () => 
 
 function SignOutItem() {
   const router = useRouter();
-  const [warning, setWarning] = useState<{ pending: number; photos: number } | null>(null);
+  const [warning, setWarning] = useState<WaitingTally | null>(null);
   const [busy, setBusy] = useState(false);
   const go = async (force: boolean) => {
     setBusy(true);
     const result = await signOut({ force });
     setBusy(false);
     if (result.ok) router.replace("/sign-in");
-    else setWarning({ pending: result.pending, photos: result.photos });
+    else setWarning(result.waiting);
   };
   return (
     <li className="px-4 py-3">
@@ -103,7 +104,7 @@ function SignOutItem() {
         <div role="alert" className="space-y-2">
           <p className="text-label">
             <strong className="text-ember-700">Not everything is sent yet.</strong> {unsentWords(warning)} only on this phone. Signing out now deletes{" "}
-            {warning.pending + warning.photos === 1 ? "it" : "them"}. Find signal and wait for &ldquo;Synced&rdquo; first if you can.
+            {warning.records + warning.photos === 1 ? "it" : "them"}. Find signal and wait for &ldquo;Synced&rdquo; first if you can.
           </p>
           <div className="flex gap-2">
             <button type="button" onClick={() => setWarning(null)} className="min-h-tap rounded-card bg-glacier-700 px-4 font-semibold text-white">

@@ -6,7 +6,7 @@ import { useIdentity, usePendingPhotos, useRejectedMutations, type SyncStatus } 
 import { canRetryAs, dismissRejected, getSyncEngine, retryRejected } from "@/lib/client/sync";
 import { discardPendingPhoto, retryPendingPhoto } from "@/lib/client/photos";
 import type { MutationName } from "@/lib/schemas/mutations";
-import { clockTime, mutationWords } from "./sync-words";
+import { clockTime, mutationWords, waitingCount, waitingWords } from "./sync-words";
 
 const phaseWords: Record<SyncStatus["phase"], string> = {
   idle: "Up to date with the farm.",
@@ -54,12 +54,18 @@ export function SyncDetails({ status, onClose }: { status: SyncStatus; onClose: 
           </button>
         </div>
         <p className="mt-2 text-ink-soft">{status.online ? phaseWords[status.phase] : phaseWords.offline}</p>
-        {status.error && status.phase !== "idle" && <p className="mt-2 text-label text-ember-700">{status.error}</p>}
-        <dl className="mt-4 grid grid-cols-2 gap-x-4 gap-y-2 text-label">
-          <dt className="text-ink-soft">Waiting to send</dt>
-          <dd className="font-semibold">{status.pending}</dd>
-          <dt className="text-ink-soft">Photos waiting</dt>
-          <dd className="font-semibold">{status.photos}</dd>
+        {/* Only a failure has words of its own; offline and sign-in are already said once above. */}
+        {status.error && status.phase === "error" && <p className="mt-2 text-label text-ember-700">{status.error}</p>}
+        <p className="mt-4" data-testid="sync-waiting">
+          {status.waiting.records + status.waiting.photos > 0 ? (
+            <>
+              <strong>{waitingCount(status.waiting)}</strong> on this phone: {waitingWords(status.waiting)}.
+            </>
+          ) : (
+            "Nothing waiting on this phone."
+          )}
+        </p>
+        <dl className="mt-3 grid grid-cols-2 gap-x-4 gap-y-2 text-label">
           <dt className="text-ink-soft">Last synced</dt>
           <dd className="font-semibold">{status.lastSyncAt ? when(status.lastSyncAt) : "Not yet"}</dd>
           {status.retryAt && (

@@ -3,6 +3,7 @@ import { getLocalDb, type RimebookDB } from "./db";
 import { adoptIdentity, clearFarmCaches, loadIdentity } from "./identity";
 import type { PhoneIdentity } from "./meta";
 import { getSyncEngine, type SyncEngine } from "./sync";
+import { readWaiting, type WaitingTally } from "./waiting";
 
 // Opening another farm the person belongs to. The phone keeps ONE farm's copy: adopting another
 // farm's identity empties it and marks unsent work as refused. So a switch first tries to send what
@@ -14,7 +15,8 @@ export type FarmChoice = { id: string; name: string; role: Role };
 /** The identity as GET /api/me and the switch answer it: with the person's farms. */
 export type IdentityWithFarms = PhoneIdentity & { farms?: FarmChoice[] };
 
-export type LeftBehind = { pending: number; refused: number; photos: number };
+/** `pending` and `photos` count what the person recorded (`waiting` says what), as the sync pill does. */
+export type LeftBehind = { pending: number; refused: number; photos: number; waiting: WaitingTally };
 export type SwitchResult =
   | { ok: true; identity: IdentityWithFarms }
   | { ok: false; reason: "unsent"; farmName: string; left: LeftBehind }
@@ -25,12 +27,9 @@ type Options = { fetch?: typeof fetch; baseUrl?: string; db?: RimebookDB; engine
 
 /** What of the current farm exists only on this phone. */
 export async function countLeftBehind(db: RimebookDB = getLocalDb()): Promise<LeftBehind> {
-  const [waiting, refused, photos] = await Promise.all([
-    db.outbox.where("status").anyOf("pending", "sending").count(),
-    db.outbox.where("status").equals("rejected").count(),
-    db.pending_photos.count(),
-  ]);
-  return { pending: waiting, refused, photos };
+  // A photo the server refused is still only on this phone: it holds the switch like a waiting one.
+  const [waiting, refused] = await Promise.all([readWaiting(db, { refusedPhotosToo: true }), db.outbox.where("status").equals("rejected").count()]);
+  return { pending: waiting.records, refused, photos: waiting.photos, waiting };
 }
 
 const isClear = (l: LeftBehind) => l.pending + l.refused + l.photos === 0;

@@ -5,14 +5,16 @@ import { useLiveQuery } from "dexie-react-hooks";
 import { getLocalDb, type OutboxEntry, type PendingPhoto } from "./db";
 import { META, type PhoneIdentity } from "./meta";
 import { getSyncEngine, outboxCounts, type SyncState } from "./sync";
+import { nothingWaiting, type WaitingTally } from "./waiting";
 
 // React reads of the phone store and the sync loop. Components read with these (or useLiveQuery on
 // getLocalDb()) and write only through lib/client/repo.ts.
 
 const serverState: SyncState = { phase: "idle", lastSyncAt: null, error: null, firstPull: null, retryAt: null };
-const noCounts = { pending: 0, rejected: 0, photos: 0 };
+const noCounts = { pending: 0, rejected: 0, photos: 0, waiting: nothingWaiting };
 
-export type SyncStatus = SyncState & { pending: number; rejected: number; photos: number; online: boolean };
+/** `pending` and `photos` count what the person recorded (`waiting` says what); `rejected` counts refused changes and photos. */
+export type SyncStatus = SyncState & { pending: number; rejected: number; photos: number; waiting: WaitingTally; online: boolean };
 
 /** Whether the browser thinks it has a network (the sync loop finds out for sure). */
 export function useOnline(): boolean {
@@ -71,4 +73,19 @@ export function usePhotoSrc(photoId: string | null | undefined): string | null {
   }, [pending]);
   if (!photoId) return null;
   return blobUrl ?? `/api/uploads/${photoId}`;
+}
+
+export type RecordSync = "waiting" | "sent" | "refused";
+
+/**
+ * Where one saved record is: still waiting on this phone, refused by the server, or sent (no
+ * outbox entry for it is left). Undefined while loading.
+ */
+export function useRecordSync(name: OutboxEntry["name"], rowId: string | null | undefined): RecordSync | undefined {
+  return useLiveQuery(async () => {
+    if (!rowId) return undefined;
+    const entries = await getLocalDb().outbox.filter((e) => e.name === name && (e.args as { id?: unknown } | null)?.id === rowId).toArray();
+    if (entries.some((e) => e.status === "rejected")) return "refused";
+    return entries.length ? "waiting" : "sent";
+  }, [name, rowId]);
 }

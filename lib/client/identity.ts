@@ -1,7 +1,9 @@
+import { SCREENS_CACHE_PREFIX } from "./cache-names";
 import { farmTables, getLocalDb, type RimebookDB } from "./db";
 import { META, readMeta, writeMeta, type PhoneIdentity } from "./meta";
 import { getSyncEngine, setSyncEngine } from "./sync";
 import { dropPushSubscription } from "./reminders";
+import { readWaiting, type WaitingTally } from "./waiting";
 
 // Who is using this phone. Kept in the phone store so the app opens with no signal; refreshed from
 // GET /api/me when there is. Sign-out empties the phone store and the caches (after a warning when
@@ -55,7 +57,7 @@ export async function refreshIdentity({ fetch: f = fetch, baseUrl = "", db = get
   return me;
 }
 
-export type SignOutResult = { ok: true } | { ok: false; pending: number; photos: number };
+export type SignOutResult = { ok: true } | { ok: false; waiting: WaitingTally };
 
 /**
  * Signs out: refuses (with the counts, so the screen can warn) while unsent work is on the phone,
@@ -63,9 +65,9 @@ export type SignOutResult = { ok: true } | { ok: false; pending: number; photos:
  * this farm's data; the precached app shell (no farm data in it) stays so the app still opens.
  */
 export async function signOut({ force = false, fetch: f = fetch, baseUrl = "", db = getLocalDb() }: Net & { force?: boolean } = {}): Promise<SignOutResult> {
-  const pending = await db.outbox.where("status").equals("pending").count();
-  const photos = await db.pending_photos.count();
-  if ((pending > 0 || photos > 0) && !force) return { ok: false, pending, photos };
+  // Counted as recorded (as the pill does); a photo the server refused is still only here, so it counts too.
+  const waiting = await readWaiting(db, { refusedPhotosToo: true });
+  if (waiting.records + waiting.photos > 0 && !force) return { ok: false, waiting };
   try {
     // The phone's id lets the server drop this phone's reminders with the session.
     const deviceId = await readMeta<string>(db, META.deviceId);
@@ -90,10 +92,10 @@ export async function wipePhoneStore(db: RimebookDB = getLocalDb()): Promise<voi
   });
 }
 
-/** Runtime caches (API answers, visited pages, photos) go; the build's precache stays. */
+/** Runtime caches (API answers, visited pages, photos) go; the build's precache and screen payloads (no farm data) stay. */
 export async function clearFarmCaches(): Promise<void> {
   if (typeof caches === "undefined") return;
   for (const name of await caches.keys()) {
-    if (!name.includes("precache")) await caches.delete(name);
+    if (!name.includes("precache") && !name.startsWith(SCREENS_CACHE_PREFIX)) await caches.delete(name);
   }
 }

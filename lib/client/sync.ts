@@ -2,6 +2,7 @@ import { getLocalDb, type OutboxEntry, type RimebookDB } from "./db";
 import { applyEffectsLocally, applyPulledPage, effectsOfEntry, undoRejected, writeTables, type PulledChange } from "./local-apply";
 import { META, deviceIdOf, readMeta, writeMeta, type FarmSettings, type PhoneIdentity } from "./meta";
 import { setSyncNudger } from "./sync-signal";
+import { splitPhotos, tallyWaiting, type WaitingTally } from "./waiting";
 
 // The sync loop: push the outbox in batches, upload waiting photos, pull the farm's changes.
 // Runs on start, when the network comes back, on focus, shortly after each local write and on an
@@ -299,14 +300,19 @@ export class SyncEngine {
   }
 }
 
-/** Mutations waiting to be sent, and those the server refused (shown until the person dismisses them). */
-export async function outboxCounts(db: RimebookDB = getLocalDb()): Promise<{ pending: number; rejected: number; photos: number }> {
-  const [pending, rejected, photos] = await Promise.all([
-    db.outbox.where("status").equals("pending").count(),
+/**
+ * What waits on this phone, counted as the person recorded it (lib/client/waiting.ts), and what the
+ * server refused (changes and photos, shown until the person decides).
+ */
+export async function outboxCounts(db: RimebookDB = getLocalDb()): Promise<{ pending: number; rejected: number; photos: number; waiting: WaitingTally }> {
+  const [entries, rejected, photos] = await Promise.all([
+    db.outbox.where("status").anyOf("pending", "sending").sortBy("n"),
     db.outbox.where("status").equals("rejected").count(),
-    db.pending_photos.count(),
+    db.pending_photos.toArray(),
   ]);
-  return { pending, rejected, photos };
+  const split = splitPhotos(photos);
+  const waiting = tallyWaiting(entries, split.waiting);
+  return { pending: waiting.records, rejected: rejected + split.refused, photos: waiting.photos, waiting };
 }
 
 /** The person read a refused change and lets it go (its rows were already undone on this phone). */

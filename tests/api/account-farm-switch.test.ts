@@ -10,7 +10,7 @@ import { addMembership } from "@/lib/server/accounts";
 import { SESSION_COOKIE } from "@/lib/server/sessions";
 import { POST as switchRoute } from "@/app/api/me/farm/route";
 import { createLot } from "@/lib/client/repo";
-import { countLeftBehind, switchFarm } from "@/lib/client/farm-switch";
+import { countLeftBehind, switchFarm, type LeftBehind } from "@/lib/client/farm-switch";
 import { loadIdentity } from "@/lib/client/identity";
 import { describeLeftBehind } from "@/components/settings/account-words";
 
@@ -79,7 +79,7 @@ describe("switching farms on the phone", () => {
     const lot = await createLot({ species: "Baptisia australis", year: 2025 });
     net.state.online = false;
     const result = await switchFarm(farmB, opts());
-    expect(result).toEqual({ ok: false, reason: "unsent", farmName: "Bramblewick Native Nursery", left: { pending: 1, refused: 0, photos: 0 } });
+    expect(result).toEqual({ ok: false, reason: "unsent", farmName: "Bramblewick Native Nursery", left: { pending: 1, refused: 0, photos: 0, waiting: { records: 1, photos: 0, parts: [{ name: "lot.create", n: 1 }] } } });
     expect(await phone.db.lots.get(lot.id)).toBeTruthy();
     expect(await phone.db.outbox.where("status").equals("pending").count()).toBe(1);
     expect((await loadIdentity(phone.db))?.farm.id).toBe(grower.farmId);
@@ -90,7 +90,7 @@ describe("switching farms on the phone", () => {
 
   it("refuses while a refused change or a photo of this farm is on the phone (its retry would go to the other farm)", async () => {
     await phone.engine.syncNow(); // the waiting lot goes up first
-    expect(await countLeftBehind(phone.db)).toEqual({ pending: 0, refused: 0, photos: 0 });
+    expect(await countLeftBehind(phone.db)).toEqual({ pending: 0, refused: 0, photos: 0, waiting: { records: 0, photos: 0, parts: [] } });
     await phone.db.outbox.add({ id: crypto.randomUUID(), name: "lot.update", args: {}, at: new Date().toISOString(), status: "rejected", error: { code: "forbidden", message: "No." }, tries: 1 });
     const refused = await switchFarm(farmB, opts());
     expect(refused).toMatchObject({ ok: false, reason: "unsent", left: { pending: 0, refused: 1, photos: 0 } });
@@ -136,11 +136,14 @@ describe("switching farms on the phone", () => {
 
 describe("the words when a switch is refused", () => {
   it.each([
-    [{ pending: 1, refused: 0, photos: 0 }, /^1 change is still only on this phone and could not be sent to Bramblewick just now\. .*until it has gone up\./],
-    [{ pending: 2, refused: 0, photos: 1 }, /^2 changes and 1 photo are still only on this phone.*until they have gone up\. Find signal, wait for “Synced” at the top, then switch\.$/],
+    [{ pending: 1, refused: 0, photos: 0, waiting: { records: 1, photos: 0, parts: [{ name: "lot.create", n: 1 }] } }, /^1 new seed lot is still only on this phone and could not be sent to Bramblewick just now\. .*until it has gone up\./],
+    [
+      { pending: 2, refused: 0, photos: 1, waiting: { records: 2, photos: 1, parts: [{ name: "check.record", n: 2 }] } },
+      /^2 checks and 1 photo are still only on this phone.*until they have gone up\. Find signal, wait for “Synced” at the top, then switch\.$/,
+    ],
     [{ pending: 0, refused: 1, photos: 0 }, /^1 change Bramblewick refused is still on this phone\. Tap the sync status at the top and try it again or let it go first/],
     [{ pending: 0, refused: 3, photos: 0 }, /^3 changes Bramblewick refused are still on this phone\. .*try them again or let them go first, so nothing is sent to the wrong farm\.$/],
-  ])("%o", (left, words) => {
-    expect(describeLeftBehind("Bramblewick", left)).toMatch(words);
+  ] as [Omit<LeftBehind, "waiting"> & { waiting?: LeftBehind["waiting"] }, RegExp][])("%o", (left, words) => {
+    expect(describeLeftBehind("Bramblewick", { waiting: { records: 0, photos: 0, parts: [] }, ...left })).toMatch(words);
   });
 });

@@ -48,9 +48,13 @@ describe("proxy: the sign-in redirect for farm pages", () => {
     for (const p of ["/today", "/scan", "/bags", "/bags/new", "/bags/view?id=1", "/check", "/sowing", "/lots", "/protocols", "/stores", "/plan", "/trials", "/team", "/settings", "/labels"]) {
       expect(runsOn(p), p).toBe(true);
     }
-    for (const p of ["/", "/sign-in", "/sign-in?next=/team", "/sign-up", "/invite/abc_DEF-123", "/reset", "/reset/abc", "/dev/mailbox", "/api/me", "/api/sync/push", "/_next/static/chunks/x.js", "/sw.js", "/manifest.webmanifest", "/icons/icon-192.png"]) {
+    for (const p of ["/", "/sign-in", "/sign-in?next=/team", "/sign-up", "/offline", "/invite/abc_DEF-123", "/reset", "/reset/abc", "/dev/mailbox", "/api/me", "/api/sync/push", "/_next/static/chunks/x.js", "/sw.js", "/manifest.webmanifest", "/icons/icon-192.png"]) {
       expect(runsOn(p), p).toBe(false);
     }
+  });
+
+  it("opens the no-signal page without a session (the page a phone falls back to; it holds no farm data)", () => {
+    expect(runsOn("/offline")).toBe(false);
   });
 
   it("only follows a next path inside the app", () => {

@@ -219,7 +219,7 @@ describe("phone sync against the real handlers", () => {
     phoneA.net.fetch = offline;
     await recordCheck(check(bagId, 30000));
     const warned = await signOut({ db: phoneA.db, fetch: offline });
-    expect(warned).toEqual({ ok: false, pending: 1, photos: 0 });
+    expect(warned).toEqual({ ok: false, waiting: { records: 1, photos: 0, parts: [{ name: "check.record", n: 1 }] } });
     expect(await phoneA.db.outbox.count()).toBe(1);
     const done = await signOut({ db: phoneA.db, fetch: offline, force: true });
     expect(done).toEqual({ ok: true });

@@ -225,7 +225,7 @@ describe("a farm and its team, in the browser", () => {
     await helper.setOffline(true);
     await digest.check();
     await farms.getByRole("button", { name: "Switch to Bramblewick Native Nursery (Helper)" }).click();
-    await helperPage.getByText("1 change is still only on this phone and could not be sent to Quill Seed Library just now.", { exact: false }).waitFor();
+    await helperPage.getByText("1 e-mail preference is still only on this phone and could not be sent to Quill Seed Library just now.", { exact: false }).waitFor();
     expect(await helperPage.getByText("Rimebook will not switch until it has gone up.", { exact: false }).count()).toBe(1);
     expect(await helperPage.getByRole("link", { name: "Rimebook: today's round" }).getByText("Quill Seed Library").count()).toBe(1);
     await shoot(helperPage, "accounts-settings-switch-refused");
