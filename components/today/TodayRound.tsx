@@ -129,7 +129,7 @@ function RoundRow({ item }: { item: RoundItem }) {
       >
         <span className="flex items-center justify-between gap-2">
           <span className="font-mono text-title font-bold tracking-wider text-ink">{formatBagCode(item.bag.code)}</span>
-          <StateBadge state={item.state} />
+          <StateBadge state={item.state} sprouts={item.bag.lastCheck?.sprouts} />
         </span>
         <span className="mt-1 block text-body text-ink">{item.bag.species}</span>
         <span className={`mt-1 block text-label font-semibold ${urgent ? "text-ember-700" : "text-ink-soft"}`}>

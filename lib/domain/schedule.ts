@@ -191,7 +191,14 @@ export function scheduleNextCheck(input: NextCheckInput): NextCheck | null {
     return { on: check.on, reason: "discard_now", note: "Mould was spreading: discard the bag sealed." };
   }
   if (check && check.sprouts !== "none") {
-    return { on: check.on, reason: "pull_now", note: "First roots were showing: pull now and sow." };
+    return {
+      on: check.on,
+      reason: "pull_now",
+      note:
+        check.sprouts === "many"
+          ? "Many seeds had sprouted: pull and sow today, before the roots tangle."
+          : "First roots were showing: pull now and sow.",
+    };
   }
 
   const last = check ? pickLaterDay(check.on, startedOn) : startedOn;
@@ -271,6 +278,13 @@ export function adviseOnCheck(findings: Pick<CheckFindings, "moisture" | "mould"
     headline =
       findings.sprouts === "many" ? "Many seeds have sprouted: pull and sow today." : "First roots are showing: pull now and sow.";
     steps.push("Handle sprouted seeds gently; the young roots break easily.");
+    // Past the usual sign (about 10 % of the seed chitted: Forest Research): roots grow into the medium and each other.
+    if (findings.sprouts === "many") {
+      steps.push(
+        "Sow today: long roots tangle in the medium and each other. Tease seeds apart rather than pulling, and sow the whole clump where they will not separate.",
+        "Next time pull this species earlier: when about one seed in ten shows a root.",
+      );
+    }
   }
   // Smaller problems add their steps; the first one found names the headline unless roots already did.
   const problems: [boolean, string, string[]][] = [

@@ -1,4 +1,4 @@
-import type { Sprouts } from "@/lib/schemas/vocabulary";
+import type { BagState, Sprouts } from "@/lib/schemas/vocabulary";
 import { addDaysToIsoDay, countDaysBetween, type IsoDay } from "./dates";
 
 // Pulled bags waiting to be sown: Today's "To sow" group, the sowing queue and the digest share this rule.
@@ -79,4 +79,12 @@ export function buildSowQueue<B extends PulledBag>(bags: readonly B[], today: Is
         b.daysOut - a.daysOut ||
         (a.bag.code < b.bag.code ? -1 : a.bag.code > b.bag.code ? 1 : 0),
     );
+}
+
+/** What a bag's badge says: its state, except a bag still in the cold whose last check found roots says so. */
+export type BadgeKind = BagState | "roots_showing";
+
+export function findBadgeKind(state: BagState, lastSprouts: Sprouts | null | undefined): BadgeKind {
+  const inCold = state === "chilling" || state === "window_open" || state === "overdue";
+  return inCold && lastSprouts && lastSprouts !== "none" ? "roots_showing" : state;
 }

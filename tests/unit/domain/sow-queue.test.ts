@@ -91,3 +91,15 @@ describe("the To sow group", () => {
     expect(summarizeSowQueue(queue)).toEqual([{ kind: "to_sow", label: "To sow", count: 2, urgent: false }]);
   });
 });
+
+describe("the bag's badge", () => {
+  it("says roots are showing once a check found them, instead of the cold state", async () => {
+    const { findBadgeKind } = await import("@/lib/domain/sow-queue");
+    expect(findBadgeKind("chilling", "first_roots")).toBe("roots_showing");
+    expect(findBadgeKind("window_open", "many")).toBe("roots_showing");
+    expect(findBadgeKind("chilling", "none")).toBe("chilling");
+    expect(findBadgeKind("chilling", null)).toBe("chilling");
+    // Once pulled, the state speaks: it is out of the cold.
+    expect(findBadgeKind("pulled", "first_roots")).toBe("pulled");
+  });
+});
