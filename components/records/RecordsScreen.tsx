@@ -1,6 +1,9 @@
 "use client";
 
-import { useEffect, useState } from "react";
+import { useState } from "react";
+import { useLiveQuery } from "dexie-react-hooks";
+import { getLocalDb } from "@/lib/client/db";
+import { useOnline } from "@/lib/client/hooks";
 import { refetchFarmCopy } from "@/lib/client/identity";
 import { getSyncEngine } from "@/lib/client/sync";
 import { buttonClass, Button } from "@/components/ui/Button";
@@ -21,24 +24,14 @@ const exportsList = [
 type RestoreReport = { restored: Record<string, number>; photosWithoutPicture: number; membersToInvite: { name: string | null; email: string; role: string }[] };
 type RestoreState = { status: "idle" } | { status: "busy" } | { status: "done"; report: RestoreReport } | { status: "error"; message: string };
 
-function useOnline(): boolean {
-  const [online, setOnline] = useState(true);
-  useEffect(() => {
-    const update = () => setOnline(navigator.onLine);
-    update();
-    window.addEventListener("online", update);
-    window.addEventListener("offline", update);
-    return () => {
-      window.removeEventListener("online", update);
-      window.removeEventListener("offline", update);
-    };
-  }, []);
-  return online;
-}
-
 export function RecordsScreen() {
   const { identity, can } = useMember();
   const online = useOnline();
+  // A new farm with no lots or bags yet: restoring a backup is the likely next step, so it comes first.
+  const isNewFarm = useLiveQuery(async () => {
+    const db = getLocalDb();
+    return (await db.lots.count()) + (await db.bags.count()) === 0;
+  }, []);
   if (identity === undefined) return <p className="text-ink-soft">Opening…</p>;
   const mayExport = can("export.read");
   const mayBackup = can("farm.backup");
@@ -47,6 +40,8 @@ export function RecordsScreen() {
   return (
     <div className="space-y-5">
       <PageHeader title="Records" subtitle={`Download ${identity?.farm.name ?? "the farm"}'s records as spreadsheets${mayBackup ? ", and keep a full backup" : ""}.`} />
+
+      {mayRestore && isNewFarm ? <RestorePanel /> : null}
 
       {!online ? (
         <p role="status" className="rounded-card bg-wheat-100 p-3 text-label">
@@ -106,7 +101,7 @@ export function RecordsScreen() {
         </section>
       ) : null}
 
-      {mayRestore ? <RestorePanel /> : null}
+      {mayRestore && !isNewFarm ? <RestorePanel /> : null}
     </div>
   );
 }

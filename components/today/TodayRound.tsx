@@ -42,7 +42,7 @@ async function loadRound(today: string) {
   // The same bags the red chips count, so the sentence and the chips agree.
   const urgent = round.items.filter((i) => urgentChipKinds.has(chipKindOf(i))).length;
   // Pulled bags waiting to be sown: their own group, most urgent first (lib/domain sowing rule).
-  const sowQueue = buildSowQueueFromRows(rows, lastChecks, today);
+  const sowQueue = buildSowQueueFromRows(rows, lastChecks, today, undefined, formatShortDay);
   return { round, sowQueue, identity, fetched, urgent, bagCount: rows.bags.length };
 }
 

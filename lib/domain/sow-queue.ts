@@ -48,17 +48,17 @@ export function describeTimeOut(daysOut: number): string {
   return `${plural(daysOut, "day")} out of the cold`;
 }
 
-/** One pulled bag against the rule on `today`. */
-export function judgeSowing<B extends PulledBag>(bag: B, today: IsoDay, rule: SowRule = defaultSowRule): SowItem<B> {
+/** One pulled bag against the rule on `today`. `formatDay` writes dates in the note (the phone: "14 Nov"). */
+export function judgeSowing<B extends PulledBag>(bag: B, today: IsoDay, rule: SowRule = defaultSowRule, formatDay: (d: IsoDay) => string = (d) => d): SowItem<B> {
   const sprouted = bag.sprouts !== "none";
   const daysOut = Math.max(0, countDaysBetween(bag.pulledOn, today));
   const sowBy = addDaysToIsoDay(bag.pulledOn, sprouted ? rule.sproutedDays : rule.plainDays);
   const isLate = today > sowBy;
   const timeOut = describeTimeOut(daysOut);
   const left = countDaysBetween(today, sowBy);
-  const when = left <= 0 ? "today" : left === 1 ? "by tomorrow" : `by ${sowBy}`;
+  const when = left <= 0 ? "today" : left === 1 ? "by tomorrow" : `by ${formatDay(sowBy)}`;
   const note = isLate
-    ? `${timeOut}: late to sow (sow by ${sowBy}${sprouted ? ", roots showing" : ""}). Sow now, or note why it waits.`
+    ? `${timeOut}: late to sow (sow by ${formatDay(sowBy)}${sprouted ? ", roots showing" : ""}). Sow now, or note why it waits.`
     : sprouted
       ? `${timeOut}, roots showing: sow ${when}; the young roots break easily.`
       : `${timeOut}: sow ${when}.`;
@@ -69,9 +69,14 @@ export function judgeSowing<B extends PulledBag>(bag: B, today: IsoDay, rule: So
  * The "To sow" group: every pulled bag not yet sown, most urgent first — late bags, then sprouted before plain
  * pulls, then the longest out of the cold, then by code. `bags` must hold only pulled, unsown, live bags.
  */
-export function buildSowQueue<B extends PulledBag>(bags: readonly B[], today: IsoDay, rule: SowRule = defaultSowRule): SowItem<B>[] {
+export function buildSowQueue<B extends PulledBag>(
+  bags: readonly B[],
+  today: IsoDay,
+  rule: SowRule = defaultSowRule,
+  formatDay?: (d: IsoDay) => string,
+): SowItem<B>[] {
   return bags
-    .map((b) => judgeSowing(b, today, rule))
+    .map((b) => judgeSowing(b, today, rule, formatDay))
     .sort(
       (a, b) =>
         Number(b.isLate) - Number(a.isLate) ||

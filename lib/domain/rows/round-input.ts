@@ -123,6 +123,7 @@ export function buildSowQueueFromRows(
   lastChecks: ReadonlyMap<string, Pick<LastCheckRow, "sprouts">>,
   today: IsoDay,
   rule?: SowRule,
+  formatDay?: (d: IsoDay) => string,
 ): SowItem<PulledBagRow>[] {
   const lotById = new Map(sources.lots.map((l) => [l.id, l]));
   const storeById = new Map(sources.stores.map((s) => [s.id, s]));
@@ -140,7 +141,7 @@ export function buildSowQueueFromRows(
       box: b.box ?? "",
     });
   }
-  return buildSowQueue(pulled, today, rule);
+  return buildSowQueue(pulled, today, rule, formatDay);
 }
 
 /** Pulled, not sown, not discarded, not deleted: a bag still waiting for someone to sow it. */

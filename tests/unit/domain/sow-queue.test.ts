@@ -103,3 +103,11 @@ describe("the bag's badge", () => {
     expect(findBadgeKind("pulled", "first_roots")).toBe("pulled");
   });
 });
+
+describe("dates in the words", () => {
+  it("the phone writes the sow-by day its own way; the digest keeps yyyy-mm-dd", () => {
+    const short = (d: string) => `day ${d.slice(8)}`;
+    expect(judgeSowing(bag("X", "2024-03-06"), today, defaultSowRule, short).note).toBe("4 days out of the cold: late to sow (sow by day 09). Sow now, or note why it waits.");
+    expect(judgeSowing(bag("X", "2024-03-10"), today, defaultSowRule, short).note).toBe("Pulled today: sow by day 13.");
+  });
+});
