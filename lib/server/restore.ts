@@ -2,6 +2,7 @@ import "server-only";
 import { randomUUID } from "node:crypto";
 import type { Knex } from "knex";
 import { AppError } from "@/lib/errors";
+import { FarmSettings } from "@/lib/schemas/farm";
 import { migrationSource } from "@/db/migrations";
 import { BACKUP_FORMAT, BACKUP_VERSION, backupTables } from "./exports";
 import { serializeRow } from "./sync/rows";
@@ -27,8 +28,6 @@ const refuse = (code: "invalid" | "conflict", message: string, status: number) =
 const notABackup = () =>
   refuse("invalid", "This file is not a Rimebook farm backup. Choose the .json file that the Records screen's backup download saved.", 422);
 
-/** Farm settings a backup carries over to the new farm (its id, counter and dates stay the new farm's own). */
-const farmSettings = ["name", "last_frost_date", "location_note", "temperature_unit", "weekly_check_days", "timezone"] as const;
 
 /** Checks the file is a backup this server can read, before anything is written. */
 export async function readBackupFile(input: unknown): Promise<{ farm: Row; members: Row[]; tables: Record<string, Row[]> }> {
@@ -156,9 +155,9 @@ export async function restoreBackup(db: Knex, target: { farmId: string; userId: 
         }
         report.restored[t] = out.length;
       }
-      const settings: Row = { seq: top, updated_at: new Date().toISOString() };
-      for (const k of farmSettings) if (backup.farm[k] !== undefined && backup.farm[k] !== null) settings[k] = backup.farm[k];
-      await trx("farms").where({ id: target.farmId }).update(settings);
+      // Farm settings come along when they are valid settings (the farm's id, counter and dates stay its own).
+      const settings = FarmSettings.safeParse(backup.farm);
+      await trx("farms").where({ id: target.farmId }).update({ ...(settings.success ? settings.data : {}), seq: top, updated_at: new Date().toISOString() });
     });
   } catch (err) {
     for (const rel of written) await removePhotoFile(rel).catch(() => undefined);
