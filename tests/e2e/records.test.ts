@@ -102,6 +102,12 @@ describe("pulled bags waiting to be sown", () => {
       await page.getByRole("link", { name: /Sowing and counts/ }).click();
       await page.waitForURL(/\/sowing$/);
       await page.getByText(shown(plain.code)).waitFor();
+      // The queue says the same as Today, most urgent first: the sprouted bag above the plain pull.
+      const queue = page.locator("main li");
+      expect(await queue.filter({ hasText: shown(rooted.code) }).textContent()).toMatch(/roots showing: sow by tomorrow/);
+      const order = await queue.locator(".font-mono").allTextContents();
+      expect(order.indexOf(shown(rooted.code))).toBeLessThan(order.indexOf(shown(plain.code)));
+      await shoot(page, "sow-queue-phone");
       expect(await page.title()).toBe("Sowing and counts · Rimebook");
 
       // The bags list opens on everything still needing a person: the pulled bags are there.
