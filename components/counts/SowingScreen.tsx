@@ -67,8 +67,8 @@ function BagPicker() {
                 <span className="block text-label text-ink-soft">{lot?.species ?? "Unknown lot"}</span>
                 {sow ? <span className={`block text-label ${sow.isLate || sow.sprouted ? "font-semibold text-ember-700" : "text-ink-soft"}`}>{sow.note}</span> : null}
               </span>
-              <span className={`rounded-full px-3 py-1 text-label font-semibold ${bag.sown_on ? "bg-moss-100 text-moss-700" : sow && (sow.isLate || sow.sprouted) ? "bg-ember-100 text-ember-700" : "bg-wheat-100 text-wheat-700"}`}>
-                {bag.sown_on ? `✿ sown ${formatDay(bag.sown_on)}` : `↑ pulled ${formatDay(bag.pulled_on!)} · ${sow?.isLate ? "late to sow" : "to sow"}`}
+              <span className={`shrink-0 whitespace-nowrap rounded-full px-3 py-1 text-label font-semibold ${bag.sown_on ? "bg-moss-100 text-moss-700" : sow && (sow.isLate || sow.sprouted) ? "bg-ember-100 text-ember-700" : "bg-wheat-100 text-wheat-700"}`}>
+                {bag.sown_on ? `✿ sown ${formatDay(bag.sown_on)}` : `↑ pulled ${formatDay(bag.pulled_on!)}`}
               </span>
             </Link>
           </li>
