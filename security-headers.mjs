@@ -34,7 +34,10 @@ export function contentSecurityPolicy({ dev = false } = {}) {
     .join("; ");
 }
 
-/** Camera for our own pages (the scanner and check photos); every other powerful feature off. */
+/**
+ * Camera for our own pages (the scanner and check photos); every other powerful feature off. Only features Chromium
+ * recognises: an unknown name (such as "bluetooth") is logged as an error on every page load.
+ */
 export const PERMISSIONS_POLICY = [
   "camera=(self)",
   "microphone=()",
@@ -42,7 +45,6 @@ export const PERMISSIONS_POLICY = [
   "payment=()",
   "usb=()",
   "serial=()",
-  "bluetooth=()",
   "hid=()",
   "midi=()",
   "display-capture=()",

@@ -6,6 +6,7 @@ import fs from "node:fs";
 import path from "node:path";
 import webpush from "web-push";
 import { demoFarm, demoMembers } from "../db/seeds/data/demo-farm";
+import { waitForApp } from "./wait-for-app";
 
 const port = process.env.PORT ?? "3000";
 fs.mkdirSync("data", { recursive: true });
@@ -56,13 +57,20 @@ if (fs.existsSync("scripts/mail-fake.ts")) {
 const server = spawn("node", ["scripts/serve.mjs", "-p", port], { stdio: "inherit", env: process.env });
 children.push(server);
 
-setTimeout(() => {
+let serverExited = false;
+server.on("exit", () => (serverExited = true));
+// The banner only once the app answers: before that the address would show a connection error.
+void waitForApp(`http://127.0.0.1:${port}/api/health`, { gaveUp: () => serverExited }).then((ready) => {
+  if (!ready) {
+    if (!serverExited) console.error(`✗ The app did not answer on port ${port} within two minutes; see the messages above.`);
+    return;
+  }
   console.log(`\nRimebook is running at ${process.env.APP_ORIGIN}`);
   console.log(`Demo farm: ${demoFarm.name}. Sign in as any of:`);
   for (const m of demoMembers) console.log(`  ${m.role.padEnd(7)} ${m.email.padEnd(30)} password: ${m.password}`);
   if (fs.existsSync("scripts/mail-fake.ts")) console.log(`Captured e-mail (invites, resets, digests): ${process.env.APP_ORIGIN}/dev/mailbox`);
   console.log("Press Ctrl+C to stop.");
-}, 1500);
+});
 
 const stop = () => {
   for (const c of children) c.kill("SIGTERM");

@@ -132,7 +132,7 @@ function BagDetailView({ data }: { data: BagDetailData }) {
             <span className="sr-only">Bag </span>
             {formatBagCode(bag.code)}
           </h1>
-          <StateBadge state={state} />
+          <StateBadge state={state} sprouts={checks[0]?.sprouts} />
         </div>
         <p className="text-title">
           <i>{lot?.species ?? "Unknown lot"}</i>

@@ -75,6 +75,11 @@ export function BagsTable() {
   const allRows = useMemo(() => (sources ? buildBagRows(sources, today, { asOf: Date.now() }) : []), [sources, today]);
   const rows = useMemo(() => filterBagRows(allRows, filters, today), [allRows, filters, today]);
   const stateCounts = useMemo(() => countByState(allRows), [allRows]);
+  // A search that finds bags only in states the chips hide says so, with one tap to show them.
+  const hiddenMatches = useMemo(
+    () => (filters.text.trim() && filters.states.length ? filterBagRows(allRows, { ...filters, states: [] }, today).length - rows.length : 0),
+    [allRows, filters, rows.length, today],
+  );
   const speciesList = useMemo(() => [...new Set(allRows.map((r) => r.species))].sort(), [allRows]);
   const stores = sources?.stores ?? [];
 
@@ -121,6 +126,15 @@ export function BagsTable() {
             onChange={(e) => setFilters((f) => ({ ...f, text: e.target.value }))}
           />
         </label>
+
+        {hiddenMatches > 0 ? (
+          <p role="status" className="flex flex-wrap items-center gap-2 rounded-card bg-wheat-100 p-3 text-label">
+            {hiddenMatches} more {hiddenMatches === 1 ? "bag matches" : "bags match"} in states not shown (sown or discarded).
+            <button type="button" className={buttonClass("quiet", "md")} onClick={() => setFilters((f) => ({ ...f, states: [] }))}>
+              Show all states
+            </button>
+          </p>
+        ) : null}
 
         <ChipRow label="State">
           {bagStates.map((s: BagState) => (

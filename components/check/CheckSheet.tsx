@@ -228,7 +228,7 @@ export function CheckSheet() {
           <p className="font-mono text-code font-bold tracking-widest text-ink" aria-label={`Bag code ${row.codeShown}`}>
             {row.codeShown}
           </p>
-          <StateBadge state={row.state} />
+          <StateBadge state={row.state} sprouts={data.sheet.lastCheck?.sprouts} />
         </div>
         <h1 className="text-title font-bold leading-snug text-glacier-800">
           {row.species}

@@ -280,9 +280,10 @@ function printCss(size: LabelSize): string {
 .bag-label-date { color: #333; }
 @media print {
   ${page}
-  body * { visibility: hidden; }
-  .label-print, .label-print * { visibility: visible; }
-  .label-print { position: absolute; left: 0; top: 0; }
+  /* Only the labels take space on paper: hidden screen parts (header, form, padding) would otherwise flow onto
+     extra blank pages, which a 2×1 in label roll prints as wasted labels. */
+  body *:not(:has(.label-print)):not(.label-print):not(.label-print *) { display: none !important; }
+  body, body *:has(.label-print) { margin: 0 !important; padding: 0 !important; min-height: 0 !important; border: 0 !important; box-shadow: none !important; }
   .label-page { break-after: page; page-break-after: always; margin: 0; }
   .label-page:last-child { break-after: auto; page-break-after: auto; }
   .bag-label { outline: none; }

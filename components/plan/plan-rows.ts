@@ -88,7 +88,7 @@ export function computePlanRow(input: {
   const { item, protocol, lot, history } = input;
   const rule = item.sowing_rule;
   const survival = item.expected_survival ?? 1;
-  const survivalBasis = item.expected_survival == null ? "none lost (no survival entered)" : `${Math.round(survival * 100)} % as entered`;
+  const survivalBasis = item.expected_survival == null ? "not entered, so every seedling is counted as a plant (enter one to add a margin)" : `${Math.round(survival * 100)} % as entered`;
   let expectation: GerminationExpectation | null = null;
   if (item.expected_germination != null) expectation = { kind: "fraction", value: item.expected_germination };
   else if (history && history.sown > 0 && history.germinated > 0) expectation = { kind: "history", germinated: history.germinated, sown: history.sown };

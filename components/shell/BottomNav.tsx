@@ -11,6 +11,7 @@ import { BagsGlyph, MoreGlyph, ScanGlyph, SeasonGlyph, TodayGlyph } from "./NavI
 // Phone navigation: five thumb-sized targets at the bottom. Season and More open a short menu.
 
 const seasonLinks = [
+  { href: "/sowing", label: "Sowing and counts", hint: "Pulled bags to sow, trays to count" },
   { href: "/plan", label: "Season plan", hint: "Start-by dates and seed needs" },
   { href: "/lots", label: "Seed lots", hint: "Species, source, year, quantity" },
   { href: "/protocols", label: "Protocols", hint: "Each species' recipe and its sources" },
@@ -19,6 +20,7 @@ const seasonLinks = [
 ];
 const moreLinks = [
   { href: "/labels", label: "Labels", hint: "Print bag labels with codes" },
+  { href: "/records", label: "Records", hint: "Download the farm's records and backup" },
   { href: "/team", label: "Team", hint: "Members and invitations" },
   { href: "/settings", label: "Settings", hint: "Farm, frost date, e-mail" },
 ];
@@ -48,7 +50,7 @@ export function BottomNav() {
             <ScanGlyph />
             Scan
           </Link>
-          <Link href="/bags" className={tab(path.startsWith("/bags") || path.startsWith("/sowing"))} aria-current={path.startsWith("/bags") ? "page" : undefined}>
+          <Link href="/bags" className={tab(path.startsWith("/bags"))} aria-current={path.startsWith("/bags") ? "page" : undefined}>
             <BagsGlyph />
             Bags
           </Link>

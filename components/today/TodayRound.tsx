@@ -15,7 +15,20 @@ import { buttonClass } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
 import { StateBadge } from "@/components/ui/StateBadge";
 import { formatShortDay } from "@/components/bags/format-day";
-import { buildRoundFromRows, cadenceFor, chipKindOf, countStoreBags, summarizeRound, urgentChipKinds } from "@/lib/domain/rows/round-input";
+import {
+  buildRoundFromRows,
+  buildSowQueueFromRows,
+  cadenceFor,
+  chipKindOf,
+  countStoreBags,
+  describeRoundCount,
+  isWaitingToSow,
+  summarizeRound,
+  summarizeSowQueue,
+  urgentChipKinds,
+  type PulledBagRow,
+} from "@/lib/domain/rows/round-input";
+import type { SowItem } from "@/lib/domain/sow-queue";
 import { ScanGlyph } from "./ScanGlyph";
 
 // Today: the bags due for a check, worked out on the phone from the phone store (works with no signal).
@@ -25,13 +38,16 @@ async function loadRound(today: string) {
   // Readings only from the fridges' bags still in the cold: the round never shows a pulled bag.
   const [rows, identity, fetched] = await Promise.all([loadFarmRows(db, "in_cold"), loadIdentity(db), loadFarmFetched(db)]);
   const live = rows.bags.filter((b) => !b.deleted_at && b.start_date && !b.pulled_on && !b.sown_on && !b.discarded_on);
-  const [lastChecks, farmWindows] = await Promise.all([loadLastChecks(db, live.map((b) => b.id)), loadSpeciesWindows(db, rows, today)]);
+  const toSow = rows.bags.filter(isWaitingToSow);
+  const [lastChecks, farmWindows] = await Promise.all([loadLastChecks(db, [...live, ...toSow].map((b) => b.id)), loadSpeciesWindows(db, rows, today)]);
   // Windows move by the cold lost up to now (each store's readings, read once): the same rows as the bags table.
   // The farm's own history turns a bag daily from the day its species' roots have shown here.
   const round = buildRoundFromRows(rows, lastChecks, today, cadenceFor(identity?.farm.weekly_check_days), { asOf: Date.now() }, farmWindows);
   // The same bags the red chips count, so the sentence and the chips agree.
   const urgent = round.items.filter((i) => urgentChipKinds.has(chipKindOf(i))).length;
-  return { round, identity, fetched, urgent, bagCount: rows.bags.length };
+  // Pulled bags waiting to be sown: their own group, most urgent first (lib/domain sowing rule).
+  const sowQueue = buildSowQueueFromRows(rows, lastChecks, today, undefined, formatShortDay);
+  return { round, sowQueue, identity, fetched, urgent, bagCount: rows.bags.length };
 }
 
 const longDay = new Intl.DateTimeFormat("en-GB", { weekday: "long", day: "numeric", month: "long" });
@@ -47,9 +63,7 @@ export function TodayRound() {
         <h1 className="text-display font-bold leading-tight text-glacier-800">Today&apos;s round</h1>
         {data && (data.fetched || data.bagCount > 0) ? (
           <p className="text-body text-ink-soft" data-testid="round-count">
-            {data.round.counts.due === 0
-              ? "No bags due for a check."
-              : `${data.round.counts.due} ${data.round.counts.due === 1 ? "bag" : "bags"} to check${data.urgent ? `, ${data.urgent} needing action first` : ""}.`}
+            {describeRoundCount(data.round.counts.due, data.urgent, data.sowQueue)}
           </p>
         ) : null}
       </header>
@@ -68,9 +82,9 @@ export function TodayRound() {
         </Card>
       ) : null}
 
-      {data && data.round.counts.due > 0 ? (
+      {data && data.round.counts.due + data.sowQueue.length > 0 ? (
         <ul className="flex flex-wrap gap-2" aria-label="Due today by reason">
-          {summarizeRound(data.round).map((s) => (
+          {[...summarizeSowQueue(data.sowQueue), ...summarizeRound(data.round)].map((s) => (
             <li
               key={s.kind}
               className={`rounded-full px-3 py-1 text-label font-semibold ${s.urgent ? "bg-ember-100 text-ember-700" : "bg-rime-100 text-glacier-800"}`}
@@ -80,6 +94,8 @@ export function TodayRound() {
           ))}
         </ul>
       ) : null}
+
+      {data && data.sowQueue.length > 0 ? <SowGroup items={data.sowQueue} /> : null}
 
       {data?.round.stores.map((store) => (
         <section key={store.storeId} aria-labelledby={`store-${store.storeId}`} className="space-y-3">
@@ -129,7 +145,7 @@ function RoundRow({ item }: { item: RoundItem }) {
       >
         <span className="flex items-center justify-between gap-2">
           <span className="font-mono text-title font-bold tracking-wider text-ink">{formatBagCode(item.bag.code)}</span>
-          <StateBadge state={item.state} />
+          <StateBadge state={item.state} sprouts={item.bag.lastCheck?.sprouts} />
         </span>
         <span className="mt-1 block text-body text-ink">{item.bag.species}</span>
         <span className={`mt-1 block text-label font-semibold ${look.text}`}>
@@ -142,5 +158,40 @@ function RoundRow({ item }: { item: RoundItem }) {
         ) : null}
       </Link>
     </li>
+  );
+}
+
+function SowGroup({ items }: { items: SowItem<PulledBagRow>[] }) {
+  return (
+    <section aria-labelledby="to-sow" className="space-y-3" data-testid="to-sow">
+      <h2 id="to-sow" className="flex items-baseline justify-between border-b-2 border-moss-600 pb-1 text-title font-bold text-glacier-800">
+        <span>To sow</span>
+        <span className="text-label font-semibold text-ink-soft">{items.length} pulled</span>
+      </h2>
+      <ul className="space-y-2">
+        {items.map((item) => {
+          const urgent = item.isLate || item.sprouted;
+          return (
+            <li key={item.bag.id}>
+              <Link
+                href={`/sowing?bag=${encodeURIComponent(item.bag.id)}`}
+                className={`block min-h-tap rounded-card border-2 bg-white p-3 shadow-sm hover:bg-rime-50 ${urgent ? "border-ember-600" : "border-rime-200"}`}
+                data-testid="sow-bag"
+              >
+                <span className="flex items-center justify-between gap-2">
+                  <span className="font-mono text-title font-bold tracking-wider text-ink">{formatBagCode(item.bag.code)}</span>
+                  <StateBadge state="pulled" />
+                </span>
+                <span className="mt-1 block text-body text-ink">{item.bag.species}</span>
+                <span className={`mt-1 block text-label font-semibold ${urgent ? "text-ember-700" : "text-ink-soft"}`}>
+                  {urgent ? <span aria-hidden="true">▲ </span> : null}
+                  {item.note}
+                </span>
+              </Link>
+            </li>
+          );
+        })}
+      </ul>
+    </section>
   );
 }

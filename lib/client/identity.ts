@@ -19,13 +19,27 @@ export async function loadIdentity(db: RimebookDB = getLocalDb()): Promise<Phone
  * Remembers the signed-in member. A different person or farm on this phone starts from an empty
  * farm copy; their predecessor's unsent records stay visible as refused (never sent under the new name).
  */
+/**
+ * Empties the phone's copy of the farm's records and its pull cursor (call inside a Dexie transaction over those
+ * tables), so the next sync fetches the farm afresh: after a switch of person or farm, and after a restore.
+ */
+export async function clearFarmCopy(db: RimebookDB): Promise<void> {
+  await Promise.all([...farmTables.map((t) => db.table(t).clear()), db.audit_log.clear()]);
+  await db.meta.bulkDelete([META.cursor, META.firstPullDone, META.repairPull, META.lastSyncAt]);
+}
+
+/** After a restore the server's farm is new from end to end: the phone drops its copy and fetches it again. */
+export async function refetchFarmCopy(db: RimebookDB = getLocalDb()): Promise<void> {
+  await db.transaction("rw", [...farmTables.map((t) => db.table(t)), db.audit_log, db.meta], () => clearFarmCopy(db));
+}
+
 export async function adoptIdentity(me: PhoneIdentity, db: RimebookDB = getLocalDb()): Promise<void> {
   const prev = await loadIdentity(db);
   const samePerson = prev && prev.user.id === me.user.id && prev.farm.id === me.farm.id;
   await db.transaction("rw", [...farmTables.map((t) => db.table(t)), db.audit_log, db.outbox, db.meta, db.pending_photos], async () => {
     if (prev && !samePerson) {
-      await Promise.all([...farmTables.map((t) => db.table(t).clear()), db.audit_log.clear(), db.pending_photos.clear()]);
-      await db.meta.bulkDelete([META.cursor, META.firstPullDone, META.repairPull, META.lastSyncAt]);
+      await clearFarmCopy(db);
+      await db.pending_photos.clear();
       await db.outbox
         .where("status")
         .equals("pending")

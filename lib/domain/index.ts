@@ -4,6 +4,7 @@ export * from "./units";
 export * from "./protocols";
 export * from "./schedule";
 export * from "./round";
+export * from "./sow-queue";
 export * from "./cold-exposure";
 export * from "./effective-window";
 export * from "./planning";

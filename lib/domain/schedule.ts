@@ -195,7 +195,14 @@ export function scheduleNextCheck(input: NextCheckInput): NextCheck | null {
     return { on: check.on, reason: "discard_now", note: "Mould was spreading: discard the bag sealed." };
   }
   if (check && check.sprouts !== "none") {
-    return { on: check.on, reason: "pull_now", note: "First roots were showing: pull now and sow." };
+    return {
+      on: check.on,
+      reason: "pull_now",
+      note:
+        check.sprouts === "many"
+          ? "Many seeds had sprouted: pull and sow today, before the roots tangle."
+          : "First roots were showing: pull now and sow.",
+    };
   }
 
   const last = check ? pickLaterDay(check.on, startedOn) : startedOn;
@@ -286,7 +293,16 @@ export function adviseOnFindings(findings: Pick<CheckFindings, "moisture" | "mou
         : null;
   const sprouts: CheckAdvice | null =
     findings.sprouts === "many"
-      ? { level: "act_now", headline: "Many seeds have sprouted: pull and sow today.", steps: ["Handle sprouted seeds gently; the young roots break easily."] }
+      ? {
+          level: "act_now",
+          headline: "Many seeds have sprouted: pull and sow today.",
+          steps: [
+            "Handle sprouted seeds gently; the young roots break easily.",
+            // Past the usual sign (about 10 % of the seed chitted: Forest Research): roots grow into the medium and each other.
+            "Sow today: long roots tangle in the medium and each other. Tease seeds apart rather than pulling, and sow the whole clump where they will not separate.",
+            "Next time pull this species earlier: when about one seed in ten shows a root.",
+          ],
+        }
       : findings.sprouts === "first_roots"
         ? { level: "act_now", headline: "First roots are showing: pull now and sow.", steps: ["Handle sprouted seeds gently; the young roots break easily."] }
         : null;

@@ -75,6 +75,7 @@ export type MutationArgs<N extends MutationName> = z.infer<(typeof mutationTable
 export const actionTable = {
   "team.manage": "owner",
   "farm.backup": "owner",
+  "farm.restore": "owner",
   "export.read": "viewer",
   "import.lots": "grower",
   "import.readings": "grower",

@@ -2,7 +2,7 @@ import "server-only";
 import { isUniqueViolation } from "./db-errors";
 import type { Knex } from "knex";
 import { buildBagRows } from "@/lib/domain/rows/bag-rows";
-import { buildRoundFromRows, cadenceFor, type LastCheckRow } from "@/lib/domain/rows/round-input";
+import { buildRoundFromRows, buildSowQueueFromRows, cadenceFor, type LastCheckRow } from "@/lib/domain/rows/round-input";
 import { findZonedDay, isKnownTimeZone } from "@/lib/domain/csv";
 import {
   addDaysToIsoDay,
@@ -58,12 +58,14 @@ export interface FarmDigest {
   due: DigestBag[];
   windowsOpening: DigestBag[];
   overdue: DigestBag[];
+  /** Pulled bags not yet sown, late ones first (lib/domain sowing rule). */
+  toSow: (DigestBag & { late: boolean })[];
   mouldYesterday: DigestMould[];
   excursions: DigestExcursion[];
 }
 
 export const isEmptyDigest = (d: FarmDigest) =>
-  d.due.length + d.windowsOpening.length + d.overdue.length + d.mouldYesterday.length + d.excursions.length === 0;
+  d.due.length + d.windowsOpening.length + d.overdue.length + d.toSow.length + d.mouldYesterday.length + d.excursions.length === 0;
 
 /** The band a store is held to in the digest. A fridge: the product's default cold band (0–10 °C, REFERENCES.md). */
 function storeBand(kind: string): TemperatureBand | null {
@@ -151,6 +153,15 @@ export async function buildFarmDigest(db: Knex, farmId: string, day: string, now
       note: i.isLate ? `${i.next.note} (due since ${i.next.on})` : i.next.note,
     }));
 
+  // Pulled bags waiting to be sown, the same queue as Today's "To sow" group.
+  const toSow = buildSowQueueFromRows(sources, lastChecks, day).map((i) => ({
+    code: formatBagCode(i.bag.code),
+    species: i.bag.species ?? "",
+    place: "out of the cold",
+    note: i.note,
+    late: i.isLate,
+  }));
+
   // Mould found at yesterday's checks (the farm's calendar day).
   const yesterday = addDaysToIsoDay(day, -1);
   const mouldRows: Record<string, unknown>[] = await db("checks as c")
@@ -196,7 +207,7 @@ export async function buildFarmDigest(db: Knex, farmId: string, day: string, now
     }
   }
 
-  return { farm, day, due, windowsOpening: opening, overdue, mouldYesterday, excursions };
+  return { farm, day, due, windowsOpening: opening, overdue, toSow, mouldYesterday, excursions };
 }
 
 // ---- The e-mail ----
@@ -227,6 +238,13 @@ function sectionsOf(d: FarmDigest): Section[] {
   if (d.due.length) sections.push({ title: `Bags to check today (${d.due.length})`, items: d.due.map(bagLine) });
   if (d.windowsOpening.length) sections.push({ title: `Pull windows opening today (${d.windowsOpening.length})`, items: d.windowsOpening.map(bagLine) });
   if (d.overdue.length) sections.push({ title: `Past the latest pull date (${d.overdue.length})`, items: d.overdue.map(bagLine) });
+  if (d.toSow.length) {
+    const late = d.toSow.filter((b) => b.late).length;
+    sections.push({
+      title: `Pulled, waiting to be sown (${d.toSow.length}${late ? `, ${late} late` : ""})`,
+      items: d.toSow.map((b) => `${b.late ? "LATE · " : ""}${b.code} · ${b.species}: ${b.note}`),
+    });
+  }
   if (d.mouldYesterday.length) {
     sections.push({
       title: `Mould found yesterday (${d.mouldYesterday.length})`,
@@ -256,6 +274,10 @@ function subjectOf(d: FarmDigest): string {
   if (d.due.length) parts.push(plural(d.due.length, "bag") + " to check");
   if (d.windowsOpening.length) parts.push(plural(d.windowsOpening.length, "window") + " opening");
   if (d.overdue.length) parts.push(`${d.overdue.length} past the latest pull`);
+  if (d.toSow.length) {
+    const late = d.toSow.filter((b) => b.late).length;
+    parts.push(`${d.toSow.length} to sow${late ? ` (${late} late)` : ""}`);
+  }
   if (d.mouldYesterday.length) parts.push("mould found yesterday");
   if (d.excursions.length) parts.push("a cold store left its band");
   return `${d.farm.name} · ${describeDay(d.day)}: ${parts.join(", ")}`;

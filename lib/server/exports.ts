@@ -3,10 +3,12 @@ import type { Knex } from "knex";
 import { z } from "zod";
 import { notFound } from "@/lib/errors";
 import { findZonedDay, isKnownTimeZone, writeCsv } from "@/lib/domain/csv";
-import { countDaysBetween } from "@/lib/domain";
+import { countDaysBetween, formatBagCode } from "@/lib/domain";
+import { migrationSource } from "@/db/migrations";
 import { vocabularyLabels, type CheckAction, type Moisture, type Mould, type Sprouts } from "@/lib/schemas/vocabulary";
 import { parseRow } from "./sync/rows";
 import { loadFarmBagRows } from "./bag-rows";
+import { readPhotoFile } from "./storage";
 
 // CSV exports of the farm's records and the Owner's full-farm JSON backup. Only the member's own
 // farm is ever read; tombstoned rows stay out of the CSVs (the backup keeps them, marked).
@@ -57,7 +59,7 @@ async function exportRows(db: Knex, farm: Farm, what: ExportKind, now: Date): Pr
       return rows.map((b) => {
         const row = shown.get(b.id);
         return {
-          code: b.code,
+          code: formatBagCode(b.code),
           species: b.species,
           common_name: b.common_name,
           lot_source: b.lot_source,
@@ -95,7 +97,7 @@ async function exportRows(db: Knex, farm: Farm, what: ExportKind, now: Date): Pr
         const actions = parseRow("checks", c).actions as CheckAction[] | null;
         return {
           checked_at: c.checked_at,
-          bag_code: c.code,
+          bag_code: formatBagCode(c.code),
           species: c.species,
           moisture: vocabularyLabels.moisture[c.moisture as Moisture] ?? c.moisture,
           mould: vocabularyLabels.mould[c.mould as Mould] ?? c.mould,
@@ -137,7 +139,7 @@ async function exportRows(db: Knex, farm: Farm, what: ExportKind, now: Date): Pr
         .select("w.*", "b.code", "l.species");
       return rows.map((w) => ({
         sown_on: w.sown_on,
-        bag_code: w.code,
+        bag_code: formatBagCode(w.code),
         species: w.species,
         tray: w.tray,
         cells: w.cells,
@@ -157,7 +159,7 @@ async function exportRows(db: Knex, farm: Farm, what: ExportKind, now: Date): Pr
         .orderBy([{ column: "b.code" }, { column: "w.sown_on" }, { column: "n.counted_on" }])
         .select("n.*", "b.code", "l.species", "w.sown_on", "w.seeds_sown");
       return rows.map((n) => ({
-        bag_code: n.code,
+        bag_code: formatBagCode(n.code),
         species: n.species,
         sown_on: n.sown_on,
         counted_on: n.counted_on,
@@ -217,11 +219,16 @@ export const backupTables = [
   "photos", "sowings", "counts", "audit_log", "digest_runs",
 ] as const;
 
+export const BACKUP_FORMAT = "rimebook-farm-backup";
+/** Raised when the file's shape changes; a server refuses backups with a higher number (lib/server/restore.ts). */
+export const BACKUP_VERSION = 1;
+
 /**
  * The Owner's download: the farm row, its members (names, e-mails, roles; never password hashes)
  * and every row of every farm table, tombstones included. Sessions, invite and reset tokens stay out.
+ * `withPhotos`: each photo row also carries its picture (base64), so a restore brings the pictures back.
  */
-export async function buildBackup(db: Knex, farmId: string, now = new Date()) {
+export async function buildBackup(db: Knex, farmId: string, now = new Date(), { withPhotos = false } = {}) {
   const farm = await db("farms").where({ id: farmId }).first();
   if (!farm) throw notFound("The farm");
   const members = await db("memberships as m")
@@ -236,21 +243,30 @@ export async function buildBackup(db: Knex, farmId: string, now = new Date()) {
   for (const t of backupTables) {
     const order = t === "audit_log" ? "id" : t === "digest_runs" ? "day" : "seq";
     const rows: Record<string, unknown>[] = await db(t).where({ farm_id: farmId }).orderBy(order);
-    tables[t] = rows.map((r) => {
+    tables[t] = [];
+    for (const r of rows) {
       const row = parseRow(t, r);
       if (t === "photos") {
         row.url = `/api/uploads/${String(row.id)}`;
+        if (withPhotos && !row.deleted_at) {
+          // A picture missing on disk is left out of the file; the restore then reports it, the rest still comes back.
+          const bytes = await readPhotoFile(String(r.path)).catch(() => null);
+          if (bytes) row.data = bytes.toString("base64");
+        }
         delete row.path; // where the file sits on the server's disk
       }
-      return row;
-    });
+      tables[t].push(row);
+    }
   }
   const counts = Object.fromEntries(Object.entries(tables).map(([k, v]) => [k, v.length]));
   return {
-    fileName: `rimebook-backup-${slug(farm.name)}-${findZonedDay(now, isKnownTimeZone(farm.timezone) ? farm.timezone : "UTC")}.json`,
+    fileName: `rimebook-backup-${withPhotos ? "with-photos-" : ""}${slug(farm.name)}-${findZonedDay(now, isKnownTimeZone(farm.timezone) ? farm.timezone : "UTC")}.json`,
     backup: {
-      format: "rimebook-farm-backup",
-      version: 1,
+      format: BACKUP_FORMAT,
+      version: BACKUP_VERSION,
+      /** The database's latest migration when it was made: a server that does not know it is older. */
+      schema: (await migrationSource.getMigrations([])).sort().at(-1),
+      withPhotos,
       exportedAt: now.toISOString(),
       farm: { ...farm, seq: Number(farm.seq) },
       members: members.map((m) => parseRow("memberships", m)),

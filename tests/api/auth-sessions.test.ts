@@ -131,7 +131,7 @@ describe("the role matrix: every role × every mutation and action, through requ
   // Expected from PRODUCT.md: Owner everything; Grower plans, lots, protocols, bags, checks;
   // Helper checks, pulls, counts (and readings, sowings, photos); Viewer reads only.
   const helperMay = new Set(["member.preferences", "reading.record", "bag.pull", "bag.discard", "check.record", "sowing.record", "count.record", "photo.upload", "export.read"]);
-  const ownerOnly = new Set(["farm.update", "team.manage", "farm.backup"]);
+  const ownerOnly = new Set(["farm.update", "team.manage", "farm.backup", "farm.restore"]);
   const viewerMay = new Set(["member.preferences", "export.read"]);
   function expected(role: Role, name: string): boolean {
     if (role === "owner") return true;

@@ -59,6 +59,12 @@ beforeAll(async () => {
   await bag("GGGG77", day(-9)); // its weekly check two days ago was missed
   const ownRhythm = await bag("JJJJ99", day(-3)); // checked every 3 days (the bag's own setting): due today
   await ctx.db("bags").where({ id: ownRhythm }).update({ check_every_days: 3 });
+  // Pulled and not sown: one five days ago with no roots (late: common practice sows within 3 days), one today with roots.
+  const longOut = await bag("KKKK12", day(-40));
+  await ctx.db("bags").where({ id: longOut }).update({ pulled_on: day(-5) });
+  const sprouted = await bag("MMMM34", day(-35));
+  await addCheck(ctx.db, f, sprouted, `${today}T08:00:00.000Z`, { sprouts: "first_roots" });
+  await ctx.db("bags").where({ id: sprouted }).update({ pulled_on: today });
   const mouldy = await bag("EEEE55", day(-10));
   await addCheck(ctx.db, f, mouldy, `${day(-1)}T16:00:00.000Z`, { mould: "spots", moisture: "soggy", note: "grey fuzz <one corner>" });
   const older = await bag("FFFF66", day(-12));
@@ -118,7 +124,7 @@ describe("/api/cron/digest", () => {
 
   it("says what is due in plain text: the round, windows opening, overdue pulls, mould yesterday, excursions", () => {
     const [m] = mailTo(owner.email);
-    expect(m.subject).toMatch(/^Bramblewick Native Nursery · \w+day \d+ \w+: 4 bags to check, 2 windows opening, 1 past the latest pull, mould found yesterday, a cold store left its band$/);
+    expect(m.subject).toMatch(/^Bramblewick Native Nursery · \w+day \d+ \w+: 4 bags to check, 2 windows opening, 1 past the latest pull, 2 to sow \(1 late\), mould found yesterday, a cold store left its band$/);
     const text = m.text;
     expect(text).toMatch(/^Good morning Wren,/);
     // The round: the weekly check and the mould follow-up (lib/domain schedule), not the bag with nothing due.
@@ -146,6 +152,16 @@ describe("/api/cron/digest", () => {
     expect(text).toContain(`Open today's round: ${new URL("/today", env.APP_ORIGIN)}`);
     expect(text).toContain("Turn it off in Settings");
     expect(text).not.toContain("ZZZ");
+  });
+
+  it("lists pulled bags waiting to be sown, the late one flagged first (lib/domain sowing rule)", () => {
+    const [m] = mailTo(owner.email);
+    const section = m.text.split("Pulled, waiting to be sown (2, 1 late)\n")[1]?.split("\n\n")[0] ?? "";
+    const lines = section.split("\n");
+    expect(lines[0]).toBe(`- LATE · KKK-K12 · Echinacea purpurea (Purple coneflower): 5 days out of the cold: late to sow (sow by ${day(-2)}). Sow now, or note why it waits.`);
+    expect(lines[1]).toBe("- MMM-M34 · Echinacea purpurea (Purple coneflower): Pulled today, roots showing: sow by tomorrow; the young roots break easily.");
+    // A pulled bag is no longer in the round of checks.
+    expect(m.text).not.toMatch(/Bags to check today[^]*KKK-K12[^]*Pulled, waiting/);
   });
 
   it("and the same words as simple HTML, escaped", () => {

@@ -87,7 +87,8 @@ describe("buildBagRows", () => {
 describe("filterBagRows", () => {
   const cases: Array<[string, Partial<BagFilters>, string[]]> = [
     ["no filter", {}, ["AAAAAA0", "BBBBBB0", "CCCCCC0", "DDDDDD0", "EEEEEE0", "FFFFFF0", "GGGGGG0"]],
-    ["active states (the default)", { states: defaultBagFilters.states }, ["AAAAAA0", "BBBBBB0", "CCCCCC0", "DDDDDD0", "EEEEEE0"]],
+    // Everything still needing a person: pulled-not-sown (FFFFFF0) stays in view; discarded (GGGGGG0) does not.
+    ["states needing a person (the default)", { states: defaultBagFilters.states }, ["AAAAAA0", "BBBBBB0", "CCCCCC0", "DDDDDD0", "EEEEEE0", "FFFFFF0"]],
     ["window open", { states: ["window_open"] }, ["AAAAAA0", "DDDDDD0"]],
     ["store: shed", { storeIds: [shed.id] }, ["CCCCCC0", "DDDDDD0"]],
     ["species: lavender", { species: ["Lavandula angustifolia"] }, ["DDDDDD0", "EEEEEE0"]],

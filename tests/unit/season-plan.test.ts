@@ -74,6 +74,13 @@ describe("computePlanRow: plan rows through lib/domain's planSeason", () => {
     if (basis) expect(r.germinationBasis).toContain(basis);
   });
 
+  it("says plainly when no survival was entered (no self-contradicting 'none lost')", () => {
+    const none = computePlanRow({ item: item({ expected_survival: null }), lastFrost: "05-10", today: "2026-12-01", protocol: cold, lot: null, history: null });
+    expect(`survival ${none.survivalBasis}.`).toBe("survival not entered, so every seedling is counted as a plant (enter one to add a margin).");
+    const entered = computePlanRow({ item: item({ expected_survival: 0.8 }), lastFrost: "05-10", today: "2026-12-01", protocol: cold, lot: null, history: null });
+    expect(entered.survivalBasis).toBe("80 % as entered");
+  });
+
   it.each([
     { name: "frost rule without a frost date", frost: null, today: "2026-12-01", problem: "frost date in Settings" },
     { name: "29 Feb frost in a common year", frost: "02-29", today: "2026-12-01", problem: "not a real calendar date" },

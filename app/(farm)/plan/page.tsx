@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { PlanScreen } from "@/components/plan/PlanScreen";
 
-export const metadata: Metadata = { title: "Season plan · Rimebook" };
+export const metadata: Metadata = { title: "Season plan" };
 
 export default function PlanPage() {
   return <PlanScreen />;

@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { SettingsScreen } from "@/components/settings/SettingsScreen";
 
-export const metadata: Metadata = { title: "Settings · Rimebook" };
+export const metadata: Metadata = { title: "Settings" };
 
 export default function SettingsPage() {
   return <SettingsScreen />;

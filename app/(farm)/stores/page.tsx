@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import { StoresScreen } from "@/components/stores/StoresScreen";
 
-export const metadata: Metadata = { title: "Cold stores · Rimebook" };
+export const metadata: Metadata = { title: "Cold stores" };
 
 export default function StoresPage() {
   return <StoresScreen />;

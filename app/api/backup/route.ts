@@ -1,14 +1,18 @@
+import { z } from "zod";
 import { requireMember, withSessionCookie } from "@/lib/server/auth";
 import { getDb } from "@/lib/server/db";
-import { route } from "@/lib/server/http";
+import { readQuery, route } from "@/lib/server/http";
 import { attachment, buildBackup } from "@/lib/server/exports";
 
 export const dynamic = "force-dynamic";
 
-/** The Owner's full-farm JSON backup: every farm table, no password hashes, sessions or tokens. */
+const BackupQuery = z.object({ photos: z.enum(["0", "1"], { error: "photos is 0 or 1." }).default("0") });
+
+/** The Owner's full-farm JSON backup: every farm table, no password hashes, sessions or tokens. ?photos=1 adds the pictures. */
 export const GET = route(async (req) => {
   const member = await requireMember(req, "farm.backup");
-  const { fileName, backup } = await buildBackup(getDb(), member.farmId);
+  const { photos } = readQuery(req, BackupQuery);
+  const { fileName, backup } = await buildBackup(getDb(), member.farmId, new Date(), { withPhotos: photos === "1" });
   const res = new Response(JSON.stringify(backup, null, 1), {
     headers: {
       "content-type": "application/json; charset=utf-8",

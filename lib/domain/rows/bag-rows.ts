@@ -235,8 +235,11 @@ export const windowFilterLabels: Record<WindowFilter, string> = {
   no_window: "No window",
 };
 
-/** States still in the fridge or about to be: the table opens on these. */
-export const activeStates: readonly BagState[] = ["planned", "chilling", "window_open", "overdue"];
+/**
+ * States that still need a person: about to go in, in the cold, and pulled but not yet sown. The table opens on
+ * these so a pulled bag never drops out of sight before it is sown.
+ */
+export const activeStates: readonly BagState[] = ["planned", "chilling", "window_open", "overdue", "pulled"];
 
 export interface BagFilters {
   /** Empty means every state. */

@@ -2,6 +2,7 @@ import { buildBagRows, type BagRow, type BagRowSources, type WindowClock } from 
 import { findLocalDayOfTimestamp, type IsoDay } from "@/lib/domain/dates";
 import { buildTodaysRound, type RoundBag, type TodaysRound } from "@/lib/domain/round";
 import { defaultCheckCadence, type CheckCadence, type CheckFindings, type NextCheckReason } from "@/lib/domain/schedule";
+import { buildSowQueue, type PulledBag, type SowItem, type SowRule } from "@/lib/domain/sow-queue";
 import type { Check } from "@/lib/schemas/check";
 import { findRootsWatchDay, type FarmWindow } from "@/lib/domain/farm-history";
 
@@ -112,4 +113,62 @@ export function summarizeRound(round: TodaysRound): { kind: RoundChipKind; label
 /** Bags in a store group, for the group's count. */
 export function countStoreBags(store: TodaysRound["stores"][number]): number {
   return store.boxes.reduce((n, b) => n + b.items.length, 0);
+}
+
+/** A pulled bag as the sowing queue wants it. */
+export interface PulledBagRow extends PulledBag {
+  storeName: string;
+  box: string;
+}
+
+/**
+ * Today's "To sow" group from the phone store's rows (or the server's): live bags pulled and not yet sown or
+ * discarded, with their last check's sprouts, ordered by lib/domain's sowing rule.
+ */
+export function buildSowQueueFromRows(
+  sources: Pick<BagRowSources, "bags" | "lots" | "stores">,
+  lastChecks: ReadonlyMap<string, Pick<LastCheckRow, "sprouts">>,
+  today: IsoDay,
+  rule?: SowRule,
+  formatDay?: (d: IsoDay) => string,
+): SowItem<PulledBagRow>[] {
+  const lotById = new Map(sources.lots.map((l) => [l.id, l]));
+  const storeById = new Map(sources.stores.map((s) => [s.id, s]));
+  const pulled: PulledBagRow[] = [];
+  for (const b of sources.bags) {
+    if (!isWaitingToSow(b)) continue;
+    const lot = lotById.get(b.lot_id);
+    pulled.push({
+      id: b.id,
+      code: b.code,
+      species: lot ? (lot.common_name ? `${lot.species} (${lot.common_name})` : lot.species) : "",
+      pulledOn: b.pulled_on!,
+      sprouts: lastChecks.get(b.id)?.sprouts ?? "none",
+      storeName: (b.store_id && storeById.get(b.store_id)?.name) || "No store",
+      box: b.box ?? "",
+    });
+  }
+  return buildSowQueue(pulled, today, rule, formatDay);
+}
+
+/** Pulled, not sown, not discarded, not deleted: a bag still waiting for someone to sow it. */
+export function isWaitingToSow(b: Pick<BagRowSources["bags"][number], "deleted_at" | "pulled_on" | "sown_on" | "discarded_on">): boolean {
+  return !b.deleted_at && !!b.pulled_on && !b.sown_on && !b.discarded_on;
+}
+
+/** The "To sow" chip at the top of Today: urgent when a bag is late or has roots showing. */
+export function summarizeSowQueue(queue: readonly SowItem[]): { kind: string; label: string; count: number; urgent: boolean }[] {
+  if (queue.length === 0) return [];
+  const late = queue.filter((i) => i.isLate).length;
+  return [{ kind: "to_sow", label: late ? `To sow (${late} late)` : "To sow", count: queue.length, urgent: queue.some((i) => i.isLate || i.sprouted) }];
+}
+
+/** Today's summary sentence: the checks due and the pulled bags waiting to be sown. */
+export function describeRoundCount(due: number, urgent: number, queue: readonly SowItem[]): string {
+  const checks = due === 0 ? null : `${due} ${due === 1 ? "bag" : "bags"} to check${urgent ? `, ${urgent} needing action first` : ""}`;
+  const late = queue.filter((i) => i.isLate).length;
+  const sow = queue.length === 0 ? null : `${queue.length} pulled ${queue.length === 1 ? "bag" : "bags"} to sow${late ? ` (${late} late)` : ""}`;
+  if (!checks && !sow) return "No bags due for a check.";
+  if (!checks) return `No bags due for a check; ${sow}.`;
+  return `${checks}${sow ? `; ${sow}` : ""}.`;
 }

@@ -161,9 +161,19 @@ describe("next check", () => {
 });
 
 describe("advice for a check", () => {
+  it("gives first roots and many sprouts their own words, in the advice and on the round", () => {
+    expect(adviseOnCheck({ moisture: "damp", mould: "clean", sprouts: "first_roots" }).steps.join(" ")).not.toMatch(/earlier/);
+    const next = (sprouts: "first_roots" | "many") =>
+      scheduleNextCheck({ state: "window_open", startedOn: "2024-01-01", window: null, lastCheck: { on: "2024-02-01", moisture: "damp", mould: "clean", sprouts } })!;
+    expect(next("first_roots").note).toBe("First roots were showing: pull now and sow.");
+    expect(next("many").note).toBe("Many seeds had sprouted: pull and sow today, before the roots tangle.");
+  });
+
   it.each([
     [{ moisture: "damp", mould: "clean", sprouts: "none" }, "fine", /All good/, []],
-    [{ moisture: "damp", mould: "clean", sprouts: "first_roots" }, "act_now", /pull now and sow/, []],
+    [{ moisture: "damp", mould: "clean", sprouts: "first_roots" }, "act_now", /pull now and sow/, [/break easily/]],
+    // "Many" is past the usual sign (sow when about 10 % of the seed is chitted: Forest Research species pages).
+    [{ moisture: "damp", mould: "clean", sprouts: "many" }, "act_now", /Many seeds have sprouted: pull and sow today/, [/tangle/, /pull this species earlier/]],
     [{ moisture: "damp", mould: "spreading", sprouts: "none" }, "act_now", /discard/, [/sealed/, /not .*sniff/, /Wash your hands/]],
     [{ moisture: "soggy", mould: "clean", sprouts: "none" }, "attention", /soggy/, [/Blot/]],
     [{ moisture: "dry", mould: "clean", sprouts: "none" }, "attention", /dried out/, [/few drops/]],

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import { Suspense } from "react";
 import { TrialView } from "@/components/trials/TrialView";
 
-export const metadata: Metadata = { title: "Trial · Rimebook" };
+export const metadata: Metadata = { title: "Trial" };
 
 // Static route reading ?id= on the phone: precached, so a trial opens with no signal.
 export default function TrialViewPage() {
