@@ -7,6 +7,7 @@
 import fs from "node:fs";
 import path from "node:path";
 import { randomUUID } from "node:crypto";
+import { formatBagCode } from "@/lib/domain/bag-codes";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, BrowserContext, Page } from "playwright-core";
 import { startApp, type AppServer } from "./support/server";
@@ -58,7 +59,7 @@ describe("pulled bags waiting to be sown", () => {
         `SELECT id, code FROM bags WHERE start_date IS NOT NULL AND pulled_on IS NULL AND sown_on IS NULL AND discarded_on IS NULL AND deleted_at IS NULL
          ORDER BY start_date LIMIT 2`,
       );
-      const shown = (code: string) => `${code.slice(0, 3)}-${code.slice(3)}`;
+      const shown = (code: string) => formatBagCode(code);
 
       // Small things on the way: one page title, a favicon, no Permissions-Policy complaint.
       expect(await page.title()).toBe("Today · Rimebook");
@@ -66,12 +67,12 @@ describe("pulled bags waiting to be sown", () => {
       expect(favicon.status()).toBe(200);
       expect(favicon.headers()["content-type"]).toMatch(/image/);
 
-      // 1. First roots on the check sheet, with "Pulled" ticked.
+      // 1. First roots on the check sheet, then its own "Pull now" step with the day.
       await page.goto(`/check?bag=${rooted.id}&from=today`);
-      await page.getByTestId("all-good").waitFor();
-      await page.locator("label", { hasText: "First roots" }).click();
-      await page.locator("label", { hasText: /^Pulled$/ }).click();
-      await page.getByRole("button", { name: "Save check" }).click();
+      await page.getByTestId("choice").waitFor();
+      await page.getByRole("group", { name: "Sprouts" }).getByText("First roots", { exact: true }).click();
+      await page.getByTestId("step-pull").click();
+      await page.getByRole("button", { name: "Save the pull" }).click();
       await page.waitForURL(/\/today/);
 
       // 2. A plain pull from the bag's page.
