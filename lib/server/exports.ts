@@ -7,6 +7,7 @@ import { countDaysBetween, formatBagCode } from "@/lib/domain";
 import { migrationSource } from "@/db/migrations";
 import { vocabularyLabels, type CheckAction, type Moisture, type Mould, type Sprouts } from "@/lib/schemas/vocabulary";
 import { parseRow } from "./sync/rows";
+import { readInSnapshot } from "./db-config";
 import { loadFarmBagRows } from "./bag-rows";
 import { readPhotoFile } from "./storage";
 
@@ -229,34 +230,41 @@ export const BACKUP_VERSION = 1;
  * `withPhotos`: each photo row also carries its picture (base64), so a restore brings the pictures back.
  */
 export async function buildBackup(db: Knex, farmId: string, now = new Date(), { withPhotos = false } = {}) {
-  const farm = await db("farms").where({ id: farmId }).first();
-  if (!farm) throw notFound("The farm");
-  const members = await db("memberships as m")
-    .join("users as u", "u.id", "m.user_id")
-    .where("m.farm_id", farmId)
-    .orderBy("m.created_at")
-    .select("m.id", "m.user_id", "u.name", "u.email", "m.role", "m.digest_opt_in", "m.created_at", "m.updated_at", "m.seq", "m.deleted_at");
-  const invites = await db("invites")
-    .where({ farm_id: farmId })
-    .select("id", "email", "role", "invited_by", "created_at", "expires_at", "accepted_at", "revoked_at");
-  const tables: Record<string, Record<string, unknown>[]> = {};
-  for (const t of backupTables) {
-    const order = t === "audit_log" ? "id" : t === "digest_runs" ? "day" : "seq";
-    const rows: Record<string, unknown>[] = await db(t).where({ farm_id: farmId }).orderBy(order);
-    tables[t] = [];
-    for (const r of rows) {
-      const row = parseRow(t, r);
-      if (t === "photos") {
-        row.url = `/api/uploads/${String(row.id)}`;
-        if (withPhotos && !row.deleted_at) {
-          // A picture missing on disk is left out of the file; the restore then reports it, the rest still comes back.
-          const bytes = await readPhotoFile(String(r.path)).catch(() => null);
-          if (bytes) row.data = bytes.toString("base64");
+  // Every table from one snapshot (a consistent file while phones keep pushing); pictures are read from disk after,
+  // so the database is not held while files are read.
+  const { farm, members, invites, tables, photoPaths } = await readInSnapshot(db, async (trx) => {
+    const farm = await trx("farms").where({ id: farmId }).first();
+    if (!farm) throw notFound("The farm");
+    const members = await trx("memberships as m")
+      .join("users as u", "u.id", "m.user_id")
+      .where("m.farm_id", farmId)
+      .orderBy("m.created_at")
+      .select("m.id", "m.user_id", "u.name", "u.email", "m.role", "m.digest_opt_in", "m.created_at", "m.updated_at", "m.seq", "m.deleted_at");
+    const invites = await trx("invites")
+      .where({ farm_id: farmId })
+      .select("id", "email", "role", "invited_by", "created_at", "expires_at", "accepted_at", "revoked_at");
+    const tables: Record<string, Record<string, unknown>[]> = {};
+    const photoPaths = new Map<Record<string, unknown>, string>();
+    for (const t of backupTables) {
+      const order = t === "audit_log" ? "id" : t === "digest_runs" ? "day" : "seq";
+      const rows: Record<string, unknown>[] = await trx(t).where({ farm_id: farmId }).orderBy(order);
+      tables[t] = [];
+      for (const r of rows) {
+        const row = parseRow(t, r);
+        if (t === "photos") {
+          row.url = `/api/uploads/${String(row.id)}`;
+          if (withPhotos && !row.deleted_at) photoPaths.set(row, String(r.path));
+          delete row.path; // where the file sits on the server's disk
         }
-        delete row.path; // where the file sits on the server's disk
+        tables[t].push(row);
       }
-      tables[t].push(row);
     }
+    return { farm, members, invites, tables, photoPaths };
+  });
+  for (const [row, filePath] of photoPaths) {
+    // A picture missing on disk is left out of the file; the restore then reports it, the rest still comes back.
+    const bytes = await readPhotoFile(filePath).catch(() => null);
+    if (bytes) row.data = bytes.toString("base64");
   }
   const counts = Object.fromEntries(Object.entries(tables).map(([k, v]) => [k, v.length]));
   return {
