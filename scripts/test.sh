@@ -80,9 +80,10 @@ if [ "${TEST_POSTGRES:-on}" != "off" ]; then
   fi
 fi
 
-echo "== SQLite pass (tests/unit, tests/api, tests/e2e)"
-env -u TEST_DATABASE_URL npx vitest run
-sqlite_rc=$?
+sqlite_log=artifacts/test-sqlite.log
+echo "== SQLite pass (tests/unit, tests/api, tests/e2e); also kept in $sqlite_log"
+env -u TEST_DATABASE_URL npx vitest run 2>&1 | tee "$sqlite_log"
+sqlite_rc=${PIPESTATUS[0]}
 
 pg_rc=0
 if [ -n "$pg_pid" ]; then
@@ -95,5 +96,9 @@ elif [ "$pg_state" = "could not start" ]; then
   pg_rc=1
 fi
 
+# The failures again at the very end, where a CI log that keeps only its tail still shows them.
+failures() { sed 's/\x1b\[[0-9;]*m//g' "$1" | grep -E '^ *(FAIL|×) ' | sort -u | head -40; }
+if [ $sqlite_rc -ne 0 ]; then echo "== SQLite pass failures:"; failures "$sqlite_log"; fi
+if [ "$pg_state" = FAILED ]; then echo "== PostgreSQL pass failures:"; failures "$pg_log"; fi
 echo "== summary: SQLite pass $([ $sqlite_rc -eq 0 ] && echo passed || echo FAILED); PostgreSQL pass $pg_state"
 [ $sqlite_rc -eq 0 ] && [ $pg_rc -eq 0 ]
