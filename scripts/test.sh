@@ -97,7 +97,13 @@ elif [ "$pg_state" = "could not start" ]; then
 fi
 
 # The failures again at the very end, where a CI log that keeps only its tail still shows them.
-failures() { sed 's/\x1b\[[0-9;]*m//g' "$1" | grep -E '^ *(FAIL|×) ' | sort -u | head -40; }
+# Each failed test with the first lines of its error (vitest's "Failed Tests" section), then the list.
+failures() {
+  local plain
+  plain=$(sed 's/\x1b\[[0-9;]*m//g' "$1")
+  awk '/Failed Tests/ { on = 1 } on && /^ *FAIL / { n = 9 } on && n > 0 && NF { print; n-- }' <<<"$plain" | cut -c1-300 | head -80
+  grep -E '^ *(FAIL|×) ' <<<"$plain" | sort -u | head -40
+}
 if [ $sqlite_rc -ne 0 ]; then echo "== SQLite pass failures:"; failures "$sqlite_log"; fi
 if [ "$pg_state" = FAILED ]; then echo "== PostgreSQL pass failures:"; failures "$pg_log"; fi
 echo "== summary: SQLite pass $([ $sqlite_rc -eq 0 ] && echo passed || echo FAILED); PostgreSQL pass $pg_state"

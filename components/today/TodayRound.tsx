@@ -5,6 +5,7 @@ import { useLiveQuery } from "dexie-react-hooks";
 import { getLocalDb } from "@/lib/client/db";
 import { loadFarmFetched, loadFarmRows, loadLastChecks } from "@/lib/client/fridge-reads";
 import { loadIdentity } from "@/lib/client/identity";
+import { useClockLabel } from "@/lib/client/hooks";
 import { loadSpeciesWindows } from "@/lib/client/history-reads";
 import { formatIsoDay } from "@/lib/domain/dates";
 import { formatBagCode } from "@/lib/domain/bag-codes";
@@ -51,15 +52,17 @@ async function loadRound(today: string) {
 }
 
 const longDay = new Intl.DateTimeFormat("en-GB", { weekday: "long", day: "numeric", month: "long" });
+const formatLongDay = (now: Date) => longDay.format(now);
 
 export function TodayRound() {
   const today = formatIsoDay(new Date());
   const data = useLiveQuery(() => loadRound(today), [today]);
+  const dayLabel = useClockLabel(formatLongDay);
 
   return (
     <div className="space-y-5">
       <header>
-        <p className="text-label font-semibold uppercase tracking-wide text-glacier-600">{longDay.format(new Date())}</p>
+        <p className="min-h-[1.5em] text-label font-semibold uppercase tracking-wide text-glacier-600">{dayLabel}</p>
         <h1 className="text-display font-bold leading-tight text-glacier-800">Today&apos;s round</h1>
         {data && (data.fetched || data.bagCount > 0) ? (
           <p className="text-body text-ink-soft" data-testid="round-count">

@@ -32,6 +32,25 @@ export function useOnline(): boolean {
   );
 }
 
+/**
+ * Now on the phone's clock as a label (e.g. "Saturday 5 December"), refreshed each minute; null while the
+ * prerendered page hydrates, so a page built on another day never shows (or mismatches on) that day.
+ */
+export function useClockLabel(format: (now: Date) => string): string | null {
+  return useSyncExternalStore(
+    (cb) => {
+      const timer = window.setInterval(cb, 60_000);
+      document.addEventListener("visibilitychange", cb);
+      return () => {
+        window.clearInterval(timer);
+        document.removeEventListener("visibilitychange", cb);
+      };
+    },
+    () => format(new Date()),
+    () => null,
+  );
+}
+
 /** The sync loop's phase plus live outbox counts, for the status pill and its details. */
 export function useSyncStatus(): SyncStatus {
   const engine = typeof window === "undefined" ? null : getSyncEngine();

@@ -10,7 +10,7 @@ import { launchChromium, phoneContext, shoot, watchErrors } from "./support/brow
 import { ARTIFACTS } from "./support/build";
 import { formatBagCode } from "@/lib/domain/bag-codes";
 import { matrixFromLabelPath, writeQrVideo } from "./support/qr-camera";
-import { queryServer, signIn, waitForRows, waitForServiceWorker } from "./support/pages";
+import { ONE_TAP_BAG, queryServer, signIn, waitForRows, waitForServiceWorker } from "./support/pages";
 
 let app: AppServer;
 let browser: Browser | null = null;
@@ -43,8 +43,7 @@ async function waitForFarm(page: Page) {
 function demoBag() {
   return queryServer<{ id: string; code: string }>(
     app.databaseFile,
-    `SELECT id, code FROM bags WHERE start_date IS NOT NULL AND pulled_on IS NULL AND discarded_on IS NULL AND sown_on IS NULL
-     ORDER BY start_date DESC LIMIT 1`,
+    `SELECT id, code FROM bags WHERE ${ONE_TAP_BAG} ORDER BY start_date DESC LIMIT 1`,
   )[0];
 }
 

@@ -9,7 +9,7 @@ import QRCode from "qrcode";
 import path from "node:path";
 import { startApp, type AppServer } from "./support/server";
 import { PHONE, launchChromium, phoneContext, shoot, watchErrors } from "./support/browser";
-import { queryServer, signIn, waitForRows, waitForServiceWorker } from "./support/pages";
+import { ONE_TAP_BAG, queryServer, signIn, waitForRows, waitForServiceWorker } from "./support/pages";
 
 let app: AppServer;
 let browser: Browser;
@@ -32,11 +32,7 @@ type BagRef = { id: string; code: string; store_id: string };
 function bagsInTheCold(n: number, offset = 0): BagRef[] {
   return queryServer<BagRef>(
     app.databaseFile,
-    // Bags whose sheet offers the one-tap all good: in the cold, not past their latest pull, nothing wrong found yet.
-    `SELECT id, code, store_id FROM bags WHERE start_date IS NOT NULL AND pulled_on IS NULL AND discarded_on IS NULL AND sown_on IS NULL
-     AND deleted_at IS NULL AND (window_end IS NULL OR window_end >= date('now'))
-     AND NOT EXISTS (SELECT 1 FROM checks c WHERE c.bag_id = bags.id AND (c.mould <> 'clean' OR c.sprouts <> 'none' OR c.moisture <> 'damp'))
-     ORDER BY code LIMIT ? OFFSET ?`,
+    `SELECT id, code, store_id FROM bags WHERE ${ONE_TAP_BAG} ORDER BY code LIMIT ? OFFSET ?`,
     n,
     offset,
   );

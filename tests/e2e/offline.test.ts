@@ -9,6 +9,7 @@ import type { Browser, BrowserContext, Page } from "playwright-core";
 import { startApp, type AppServer } from "./support/server";
 import { launchChromium, phoneContext, shoot, watchErrors } from "./support/browser";
 import { ARTIFACTS, ROOT } from "./support/build";
+import { ONE_TAP_BAG } from "./support/pages";
 
 let app: AppServer;
 let browser: Browser;
@@ -109,7 +110,7 @@ describe("offline-first phone", () => {
   }, 180_000);
 
   it("records a check with no signal; it waits on the phone and reaches the server and a second phone when the signal returns", async () => {
-    const bag = readOne<{ id: string }>("SELECT id FROM bags WHERE start_date IS NOT NULL AND pulled_on IS NULL AND discarded_on IS NULL AND sown_on IS NULL ORDER BY code LIMIT 1")!;
+    const bag = readOne<{ id: string }>(`SELECT id FROM bags WHERE ${ONE_TAP_BAG} ORDER BY code LIMIT 1`)!;
     const before = readOne<{ n: number }>("SELECT count(*) AS n FROM checks WHERE bag_id = ?", bag.id)!.n;
     await page.goto(`/check?bag=${bag.id}`);
     await page.getByTestId("all-good").click();
@@ -178,7 +179,7 @@ describe("offline-first phone", () => {
   it("sign-out warns while work is unsent, then empties the phone store and the farm's caches", async () => {
     await context.setOffline(true);
     await page.evaluate(() => window.dispatchEvent(new Event("offline")));
-    const bag = readOne<{ id: string }>("SELECT id FROM bags WHERE start_date IS NOT NULL AND pulled_on IS NULL AND discarded_on IS NULL AND sown_on IS NULL ORDER BY code DESC LIMIT 1")!;
+    const bag = readOne<{ id: string }>(`SELECT id FROM bags WHERE ${ONE_TAP_BAG} ORDER BY code DESC LIMIT 1`)!;
     await page.goto(`/check?bag=${bag.id}`);
     await page.getByTestId("all-good").click();
     await page.waitForURL(/\/scan/);

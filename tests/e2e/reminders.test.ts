@@ -173,14 +173,23 @@ describe("reminders on the phone, in the browser", () => {
     await page.close();
     const blank = await phone.newPage(); // about:blank: no Rimebook window is open
     const cdp = await phone.newCDPSession(blank);
-    await deliverToServiceWorker(cdp, message.text);
-    const worker = phone.serviceWorkers()[0] ?? (await phone.waitForEvent("serviceworker"));
-    await expect
-      .poll(() => worker.evaluate(async () => (await (self as unknown as ServiceWorkerGlobalScope).registration.getNotifications()).map((n) => n.title)), { timeout: 15_000 })
-      .toEqual([(message.json as { title: string }).title]);
-    await blank.close();
-    page = await phone.newPage();
-    errors.push(...watchErrors(page));
+    try {
+      await deliverToServiceWorker(cdp, message.text);
+      // The worker may be stopped and started again around the push (a new Worker each time): ask the newest.
+      const shown = async () => {
+        const worker = phone.serviceWorkers().at(-1);
+        if (!worker) return null;
+        return worker
+          .evaluate(async () => (await (self as unknown as ServiceWorkerGlobalScope).registration.getNotifications()).map((n) => n.title))
+          .catch(() => null);
+      };
+      await expect.poll(shown, { timeout: 30_000 }).toEqual([(message.json as { title: string }).title]);
+    } finally {
+      // The next test needs a page whatever happened here.
+      await blank.close();
+      page = await phone.newPage();
+      errors.push(...watchErrors(page));
+    }
   });
 
   it("signing out on this phone removes its reminder", async () => {

@@ -116,7 +116,7 @@ describe("season screens on a phone", () => {
   it("makes the trial's winner the farm's own protocol, with the trial as its source", async () => {
     const [trial] = q<{ id: string }>("SELECT id FROM trials");
     await page.goto(`/trials/view?id=${trial.id}`);
-    await page.getByText("unlikely to be chance").waitFor();
+    await page.getByText("the difference is likely real").waitFor();
     await page.getByRole("button", { name: "Prepare the protocol" }).click();
     await page.getByRole("button", { name: "Save as our protocol" }).click();
     await page.getByText("Saved as the farm's own protocol").waitFor();

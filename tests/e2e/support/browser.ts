@@ -60,6 +60,6 @@ export function watchErrors(page: Page): string[] {
     const where = msg.location().url;
     errors.push(where ? `${msg.text()} (${where})` : msg.text());
   });
-  page.on("pageerror", (err) => errors.push(`pageerror: ${err.message}`));
+  page.on("pageerror", (err) => errors.push(`pageerror: ${err.message} (on ${page.url()})`));
   return errors;
 }

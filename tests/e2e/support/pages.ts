@@ -42,3 +42,11 @@ export async function waitForRows<T>(databaseFile: string, sql: string, args: un
     await new Promise((r) => setTimeout(r, 250));
   }
 }
+
+/**
+ * SQL condition on `bags` for a bag whose check sheet offers the one-tap "All good": in the cold, not past its
+ * latest pull, nothing wrong found yet. The demo's bags and checks are drawn at random, so tests pick by this.
+ */
+export const ONE_TAP_BAG = `bags.start_date IS NOT NULL AND bags.pulled_on IS NULL AND bags.discarded_on IS NULL AND bags.sown_on IS NULL
+  AND bags.deleted_at IS NULL AND (bags.window_end IS NULL OR bags.window_end >= date('now'))
+  AND NOT EXISTS (SELECT 1 FROM checks c WHERE c.bag_id = bags.id AND (c.mould <> 'clean' OR c.sprouts <> 'none' OR c.moisture <> 'damp'))`;
