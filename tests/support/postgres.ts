@@ -28,5 +28,22 @@ export async function createPostgresDatabase(server: string): Promise<{ url: str
   await onServer(server, (admin) => admin.raw(`CREATE DATABASE ${name}`));
   const u = new URL(server);
   u.pathname = `/${name}`;
-  return { url: u.toString(), drop: () => onServer(server, (admin) => admin.raw(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`)).then(() => undefined) };
+  return { url: u.toString(), drop: () => dropDatabase(server, name) };
+}
+
+/** FORCE ends our own leftover connections, but a non-superuser may not end an autovacuum worker
+ *  (42501); plain DROP DATABASE stops autovacuum by itself, so that case falls back to it. */
+async function dropDatabase(server: string, name: string): Promise<void> {
+  for (let attempt = 0; ; attempt++) {
+    try {
+      const sql = attempt === 0 ? `DROP DATABASE IF EXISTS ${name} WITH (FORCE)` : `DROP DATABASE IF EXISTS ${name}`;
+      await onServer(server, (admin) => admin.raw(sql));
+      return;
+    } catch (err) {
+      const code = (err as { code?: string }).code;
+      // 42501: not allowed to end a worker; 55006: still in use (a worker between tasks).
+      if (attempt >= 10 || (code !== "42501" && code !== "55006")) throw err;
+      await new Promise((r) => setTimeout(r, 300));
+    }
+  }
 }
