@@ -78,12 +78,12 @@ export function BagDetail() {
 
 function Missing({ text }: { text: string }) {
   return (
-    <main className="mx-auto max-w-xl space-y-3 px-4 pt-6">
+    <div className="mx-auto max-w-xl lg:max-w-4xl space-y-3 px-4 pt-6">
       <p className="text-body">{text}</p>
       <Link href="/bags" className={buttonClass("secondary", "md")}>
         All bags
       </Link>
-    </main>
+    </div>
   );
 }
 
@@ -121,7 +121,7 @@ function BagDetailView({ data }: { data: BagDetailData }) {
   const memberNames = new Map(data.members.map((m) => [m.user_id, m.name ?? m.email ?? "A member"]));
 
   return (
-    <main className="mx-auto max-w-xl space-y-4 px-4 pb-28 pt-4">
+    <div className="mx-auto max-w-xl lg:max-w-4xl space-y-4 px-4 pb-28 pt-4">
       <Link href="/bags" className="inline-flex min-h-tap items-center text-label font-semibold text-glacier-700">
         ← All bags
       </Link>
@@ -228,7 +228,7 @@ function BagDetailView({ data }: { data: BagDetailData }) {
       <CheckTimeline checks={checks} photos={data.photos} pending={data.pendingPhotos} memberNames={memberNames} />
 
       <History data={data} memberNames={memberNames} />
-    </main>
+    </div>
   );
 }
 

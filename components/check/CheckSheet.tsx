@@ -19,7 +19,8 @@ import { canRun } from "@/lib/schemas/mutations";
 import { checkActions, moistureLevels, mouldLevels, sproutLevels, vocabularyLabels, type Moisture, type Mould, type Sprouts } from "@/lib/schemas/vocabulary";
 import { Button } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
-import { Caution, cautionTexts } from "@/components/ui/Caution";
+import { cautionTexts } from "@/components/ui/Caution";
+import { SheetCautions } from "./SheetCautions";
 import { Field, Input, TextArea } from "@/components/ui/Field";
 import { Segmented } from "@/components/ui/Segmented";
 import { StateBadge } from "@/components/ui/StateBadge";
@@ -422,12 +423,7 @@ export function CheckSheet() {
         ) : null}
       </form>
 
-      {cautions.map((c) => (
-        <Caution key={c.key} title={c.title}>
-          {c.text}
-          {c.source ? <span className="block text-ink-soft">Source: {c.source}</span> : null}
-        </Caution>
-      ))}
+      <SheetCautions bagId={row.id} cautions={cautions} />
     </div>
   );
 }

@@ -34,7 +34,8 @@ export function pickBagCautions(f: BagCautionFacts): BagCaution[] {
       source: toxic.verified && toxic.citation ? toxic.citation : undefined,
     });
   }
-  if (f.storeHoldsFood || toxic || f.treated) out.push({ key: "foodFridge", title: "This fridge and food", text: cautionTexts.foodFridge });
+  // Only where food is kept: the toxic and treated cautions already say to keep such seed away from food.
+  if (f.storeHoldsFood) out.push({ key: "foodFridge", title: "This fridge and food", text: cautionTexts.foodFridge });
   if (f.medicinal) out.push({ key: "medicinal", title: "Medicinal plant", text: cautionTexts.medicinal });
   return out;
 }

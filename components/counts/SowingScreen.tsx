@@ -26,13 +26,13 @@ function OneBag({ bagId }: { bagId: string }) {
     return { bag: bag ?? null, lot: lot ?? null };
   }, [bagId]);
   return (
-    <main className="mx-auto max-w-xl space-y-4 px-4 pb-28 pt-4">
+    <div className="mx-auto max-w-xl lg:max-w-4xl space-y-4 px-4 pb-28 pt-4">
       <Link href="/sowing" className="inline-flex min-h-tap items-center text-label font-semibold text-glacier-700">
         ← Bags to sow and count
       </Link>
       <PageHeader title={head?.bag ? `Bag ${formatBagCode(head.bag.code)}` : "Sowing and counts"} subtitle={head?.lot ? `${head.lot.species}${head.lot.common_name ? ` · ${head.lot.common_name}` : ""}` : undefined} />
       <SowingPanel bagId={bagId} />
-    </main>
+    </div>
   );
 }
 
@@ -50,7 +50,7 @@ function BagPicker() {
     return [...queue.map((i) => ({ ...row(byId.get(i.bag.id)!), sow: i })), ...sown.map((b) => ({ ...row(b), sow: null }))];
   }, []);
   return (
-    <main className="mx-auto max-w-xl space-y-4 px-4 pb-28 pt-4">
+    <div className="mx-auto max-w-xl lg:max-w-4xl space-y-4 px-4 pb-28 pt-4">
       <PageHeader title="Sowing and counts" subtitle="Pulled bags waiting to be sown, then the trays being counted." />
       {rows === undefined ? <p className="text-ink-soft">Opening…</p> : null}
       {rows?.length === 0 ? (
@@ -74,6 +74,6 @@ function BagPicker() {
           </li>
         ))}
       </ul>
-    </main>
+    </div>
   );
 }

@@ -35,7 +35,7 @@ export function LotForm() {
   const lot = id ? (sources.lots.find((l) => l.id === id) ?? null) : null;
   const allowed = can(lot ? "lot.update" : "lot.create");
   return (
-    <main className="mx-auto max-w-xl px-4 pb-28 pt-4">
+    <div className="mx-auto max-w-xl px-4 pb-28 pt-4">
       <Link href="/lots" className="inline-flex min-h-tap items-center text-label font-semibold text-glacier-700">
         ← All seed lots
       </Link>
@@ -56,7 +56,7 @@ export function LotForm() {
           <FarmHistoryPanel species={lot.species} protocol={sources.protocols.find((p) => p.id === lot.protocol_id && !p.deleted_at) ?? null} lotId={lot.id} />
         </div>
       ) : null}
-    </main>
+    </div>
   );
 }
 

@@ -22,7 +22,7 @@ export function LotsList() {
   const protocolName = new Map(sources.protocols.map((p) => [p.id, p.is_farm_own ? "farm's own" : "published source"]));
 
   return (
-    <main className="mx-auto max-w-xl px-4 pb-28 pt-4">
+    <div className="mx-auto max-w-xl lg:max-w-4xl px-4 pb-28 pt-4">
       <PageHeader
         title="Seed lots"
         subtitle={`${sources.lots.length} lot${sources.lots.length === 1 ? "" : "s"}`}
@@ -95,6 +95,6 @@ export function LotsList() {
           );
         })}
       </ul>
-    </main>
+    </div>
   );
 }

@@ -84,7 +84,7 @@ export function PlanScreen() {
   const canPlan = can("plan.upsert");
 
   return (
-    <main className="mx-auto max-w-xl space-y-4 px-4 pb-28 pt-4">
+    <div className="mx-auto max-w-xl lg:max-w-4xl space-y-4 px-4 pb-28 pt-4">
       <PageHeader
         title="Season plan"
         subtitle={lastFrost ? `Average last frost ${describeMonthDay(lastFrost)}${identity?.farm.location_note ? ` · ${identity.farm.location_note}` : ""}` : "Set the farm's last frost date to date the plan."}
@@ -140,7 +140,7 @@ export function PlanScreen() {
           </li>
         ))}
       </ul>
-    </main>
+    </div>
   );
 }
 

@@ -51,10 +51,10 @@ export function ProtocolForm() {
     );
   else return <ProtocolFormBody key={row?.id ?? "new"} row={row ?? null} back={back} />;
   return (
-    <main className="mx-auto max-w-xl px-4 pb-28 pt-4">
+    <div className="mx-auto max-w-xl px-4 pb-28 pt-4">
       <PageHeader title="Protocol" />
       <Card>{body}</Card>
-    </main>
+    </div>
   );
 }
 
@@ -95,7 +95,7 @@ function ProtocolFormBody({ row, back }: { row: ProtocolRow | null; back: string
   })();
 
   return (
-    <main className="mx-auto max-w-xl px-4 pb-28 pt-4">
+    <div className="mx-auto max-w-xl px-4 pb-28 pt-4">
       <Link href={back} className="inline-flex min-h-tap items-center text-label font-semibold text-glacier-700">
         ← Back
       </Link>
@@ -174,7 +174,7 @@ function ProtocolFormBody({ row, back }: { row: ProtocolRow | null; back: string
           Save the farm&apos;s protocol
         </Button>
       </form>
-    </main>
+    </div>
   );
 }
 

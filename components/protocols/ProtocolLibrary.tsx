@@ -31,7 +31,7 @@ export function ProtocolLibrary() {
   if (!rows) return <p className="p-4 text-body text-ink-soft">Opening the protocol library on this phone…</p>;
 
   return (
-    <main className="mx-auto max-w-xl px-4 pb-28 pt-4">
+    <div className="mx-auto max-w-xl lg:max-w-4xl px-4 pb-28 pt-4">
       <PageHeader
         title="Protocols"
         subtitle="Each species' pretreatment, with its sources"
@@ -99,6 +99,6 @@ export function ProtocolLibrary() {
           );
         })}
       </ul>
-    </main>
+    </div>
   );
 }

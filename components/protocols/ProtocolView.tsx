@@ -35,12 +35,12 @@ export function ProtocolView() {
   const row = useLiveQuery(async () => (id ? ((await getLocalDb().protocols.get(id)) ?? null) : null), [id]);
   if (!id || row === null || row?.deleted_at) {
     return (
-      <main className="mx-auto max-w-xl space-y-3 px-4 pt-6">
+      <div className="mx-auto max-w-xl lg:max-w-4xl space-y-3 px-4 pt-6">
         <p className="text-body">{id ? "This protocol is not on this phone. It may have been removed, or the phone has not synced it yet." : "No protocol was chosen."}</p>
         <Link href="/protocols" className={buttonClass("secondary", "md")}>
           All protocols
         </Link>
-      </main>
+      </div>
     );
   }
   if (row === undefined) return <p className="p-4 text-body text-ink-soft">Opening the protocol on this phone…</p>;
@@ -70,7 +70,7 @@ function ProtocolDetail({ row }: { row: ProtocolRow }) {
   };
 
   return (
-    <main className="mx-auto max-w-xl space-y-4 px-4 pb-28 pt-4">
+    <div className="mx-auto max-w-xl lg:max-w-4xl space-y-4 px-4 pb-28 pt-4">
       <Link href="/protocols" className="inline-flex min-h-tap items-center text-label font-semibold text-glacier-700">
         ← All protocols
       </Link>
@@ -150,7 +150,7 @@ function ProtocolDetail({ row }: { row: ProtocolRow }) {
           <SaveError message={error} />
         </div>
       ) : null}
-    </main>
+    </div>
   );
 }
 

@@ -32,7 +32,7 @@ function listTimeZones(current: string): string[] {
 export function SettingsScreen() {
   const { identity, can } = useMember();
   return (
-    <main className="mx-auto max-w-xl space-y-4 px-4 pb-28 pt-4">
+    <div className="mx-auto max-w-xl space-y-4 px-4 pb-28 pt-4">
       <PageHeader title="Settings" subtitle={identity ? `${identity.farm.name} · you are ${vocabularyLabels.role[identity.role]}` : undefined} />
       {identity === undefined ? <p className="text-ink-soft">Opening…</p> : null}
       {identity ? <FarmSwitcherCard identity={identity} /> : null}
@@ -45,7 +45,7 @@ export function SettingsScreen() {
         <h2 className="mb-2 text-body font-bold text-glacier-800">Signing out</h2>
         <SessionActions />
       </Card>
-    </main>
+    </div>
   );
 }
 

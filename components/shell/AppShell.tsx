@@ -10,6 +10,7 @@ import { META } from "@/lib/client/meta";
 import { getSyncEngine } from "@/lib/client/sync";
 import { RimeMark } from "@/components/ui/RimeMark";
 import { BottomNav } from "./BottomNav";
+import { SideNav } from "./SideNav";
 import { SyncPill } from "./SyncPill";
 
 // The signed-in frame around every farm screen. Who is signed in comes from the phone store, so the
@@ -47,9 +48,9 @@ export function AppShell({ children }: { children: React.ReactNode }) {
   }, []);
 
   return (
-    <div className="min-h-dvh pb-24">
+    <div className="min-h-dvh pb-24 lg:pb-8">
       <header className="no-print sticky top-0 z-30 border-b border-rime-200 bg-rime-50/95 backdrop-blur">
-        <div className="mx-auto flex max-w-xl items-center justify-between gap-3 px-4 py-2">
+        <div className="mx-auto flex max-w-xl items-center justify-between gap-3 px-4 py-2 lg:max-w-none">
           <Link href="/today" className="flex min-h-tap min-w-0 items-center gap-2">
             <RimeMark className="h-8 w-8 shrink-0" />
             <span className="truncate font-semibold text-glacier-800">{identity?.farm.name ?? "Rimebook"}</span>
@@ -58,12 +59,12 @@ export function AppShell({ children }: { children: React.ReactNode }) {
           <SyncPill />
         </div>
       </header>
-      {gate === "ready" && <FirstPull />}
-      {gate === "needs_signal" ? (
-        <NeedsSignal />
-      ) : gate === "signed_out" ? null : (
-        children
-      )}
+      <SideNav />
+      {/* The one <main> of every farm screen; the screens inside are plain sections of it. */}
+      <main id="main" className="lg:pl-60">
+        {gate === "ready" && <FirstPull />}
+        {gate === "needs_signal" ? <NeedsSignal /> : gate === "signed_out" ? null : children}
+      </main>
       <BottomNav />
     </div>
   );
@@ -94,7 +95,7 @@ function FirstPull() {
 
 function NeedsSignal() {
   return (
-    <main className="mx-auto max-w-xl px-4 py-8">
+    <div className="mx-auto max-w-xl px-4 py-8">
       <h1 className="text-title font-semibold">Sign in needs signal once</h1>
       <p className="mt-2 text-ink-soft">
         This phone has not been signed in to a farm yet. Find a connection and sign in; after that, Rimebook opens and records checks without one.
@@ -102,6 +103,6 @@ function NeedsSignal() {
       <Link href="/sign-in" className="mt-4 inline-flex min-h-tap items-center rounded-card bg-glacier-700 px-5 font-semibold text-white">
         Sign in
       </Link>
-    </main>
+    </div>
   );
 }

@@ -80,7 +80,7 @@ export function StoreView() {
     .sort((a, b) => (a.bag.box ?? "").localeCompare(b.bag.box ?? "") || a.bag.code.localeCompare(b.bag.code));
 
   return (
-    <main className="mx-auto max-w-xl space-y-4 px-4 pb-28 pt-4">
+    <div className="mx-auto max-w-xl lg:max-w-4xl space-y-4 px-4 pb-28 pt-4">
       <Link href="/stores" className="inline-flex min-h-tap items-center text-label font-semibold text-glacier-700">
         ← All cold stores
       </Link>
@@ -222,7 +222,7 @@ export function StoreView() {
           <StoreDelete store={store} bagsOfStore={bagsOfStore} readingCount={readings.filter((r) => !r.deleted_at).length} />
         </Card>
       ) : null}
-    </main>
+    </div>
   );
 }
 
@@ -237,13 +237,13 @@ function Stat({ label, value }: { label: string; value: string }) {
 
 function Missing({ text }: { text: string }) {
   return (
-    <main className="mx-auto max-w-xl px-4 pt-4">
+    <div className="mx-auto max-w-xl lg:max-w-4xl px-4 pt-4">
       <Card>
         <p>{text}</p>
         <Link href="/stores" className="mt-3 inline-flex min-h-tap items-center font-semibold text-glacier-700">
           ← All cold stores
         </Link>
       </Card>
-    </main>
+    </div>
   );
 }

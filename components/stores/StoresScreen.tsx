@@ -33,7 +33,7 @@ export function StoresScreen() {
   }, []);
 
   return (
-    <main className="mx-auto max-w-xl px-4 pb-28 pt-4">
+    <div className="mx-auto max-w-xl lg:max-w-4xl px-4 pb-28 pt-4">
       <PageHeader
         title="Cold stores"
         subtitle="Fridges, freezers and cold frames, with their readings."
@@ -91,6 +91,6 @@ export function StoresScreen() {
           );
         })}
       </ul>
-    </main>
+    </div>
   );
 }

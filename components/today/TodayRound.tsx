@@ -24,6 +24,7 @@ import {
   countStoreBags,
   describeRoundCount,
   isWaitingToSow,
+  roundHeadline,
   summarizeRound,
   summarizeSowQueue,
   urgentChipKinds,
@@ -48,7 +49,13 @@ async function loadRound(today: string) {
   const urgent = round.items.filter((i) => urgentChipKinds.has(chipKindOf(i))).length;
   // Pulled bags waiting to be sown: their own group, most urgent first (lib/domain sowing rule).
   const sowQueue = buildSowQueueFromRows(rows, lastChecks, today, undefined, formatShortDay);
-  return { round, sowQueue, identity, fetched, urgent, bagCount: rows.bags.length };
+  const kindOf = new Map(rows.stores.map((st) => [st.id, st.kind]));
+  const headline = roundHeadline(
+    round.counts.due,
+    round.stores.map((st) => ({ name: st.storeName, kind: kindOf.get(st.storeId) ?? "fridge" })),
+    sowQueue.length,
+  );
+  return { round, sowQueue, identity, fetched, urgent, headline, bagCount: rows.bags.length };
 }
 
 const longDay = new Intl.DateTimeFormat("en-GB", { weekday: "long", day: "numeric", month: "long" });
@@ -61,9 +68,12 @@ export function TodayRound() {
 
   return (
     <div className="space-y-5">
-      <header>
-        <p className="min-h-[1.5em] text-label font-semibold uppercase tracking-wide text-glacier-600">{dayLabel}</p>
-        <h1 className="text-display font-bold leading-tight text-glacier-800">Today&apos;s round</h1>
+      {/* The heading is the fridge-side count itself ("4 bags due in 2 fridges"); the day follows it in pencil. */}
+      <header className="border-l-4 border-glacier-600 pl-3">
+        <h1 className="text-title font-bold leading-snug text-glacier-800" data-testid="round-headline">
+          {data && (data.fetched || data.bagCount > 0) ? data.headline : "Today\u2019s round"}
+        </h1>
+        <p className="min-h-[1.5em] text-label text-ink-soft">{dayLabel ? `Today\u2019s round · ${dayLabel}` : "Today\u2019s round"}</p>
         {data && (data.fetched || data.bagCount > 0) ? (
           <p className="text-body text-ink-soft" data-testid="round-count">
             {describeRoundCount(data.round.counts.due, data.urgent, data.sowQueue)}

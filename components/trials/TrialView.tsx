@@ -104,7 +104,7 @@ export function TrialView() {
   }
 
   return (
-    <main className="mx-auto max-w-xl space-y-4 px-4 pb-28 pt-4">
+    <div className="mx-auto max-w-xl lg:max-w-4xl space-y-4 px-4 pb-28 pt-4">
       <Link href="/trials" className="inline-flex min-h-tap items-center text-label font-semibold text-glacier-700">
         ← All trials
       </Link>
@@ -258,19 +258,19 @@ export function TrialView() {
           />
         </Card>
       ) : null}
-    </main>
+    </div>
   );
 }
 
 function Missing({ text }: { text: string }) {
   return (
-    <main className="mx-auto max-w-xl px-4 pt-4">
+    <div className="mx-auto max-w-xl lg:max-w-4xl px-4 pt-4">
       <Card>
         <p>{text}</p>
         <Link href="/trials" className="mt-3 inline-flex min-h-tap items-center font-semibold text-glacier-700">
           ← All trials
         </Link>
       </Card>
-    </main>
+    </div>
   );
 }

@@ -26,7 +26,7 @@ export function TrialsScreen() {
   }, []);
 
   return (
-    <main className="mx-auto max-w-xl space-y-4 px-4 pb-28 pt-4">
+    <div className="mx-auto max-w-xl lg:max-w-4xl space-y-4 px-4 pb-28 pt-4">
       <PageHeader
         title="Trials"
         subtitle="The same lot, treated differently: which did better?"
@@ -70,6 +70,6 @@ export function TrialsScreen() {
           );
         })}
       </ul>
-    </main>
+    </div>
   );
 }

@@ -29,7 +29,7 @@ afterAll(async () => {
 const owner = { email: "wren@bramblewick.example", password: "owner-frost-demo" };
 
 /** Page files under app/ as URL paths ("(group)" folders drop out; "[param]" pages are left to their own tests). */
-function routesOnDisk(): string[] {
+function routesOnDisk(under = "app"): string[] {
   const out: string[] = [];
   const walk = (dir: string, url: string) => {
     for (const e of fs.readdirSync(dir, { withFileTypes: true })) {
@@ -39,7 +39,7 @@ function routesOnDisk(): string[] {
       } else if (e.name === "page.tsx") out.push(url || "/");
     }
   };
-  walk(path.join(ROOT, "app"), "");
+  walk(path.join(ROOT, under), "");
   return out.sort();
 }
 
@@ -119,6 +119,8 @@ describe("every screen, as the Owner on a phone", () => {
   it("has no serious accessibility problem, no target under 44 px, nothing wider than the phone; screenshots saved", async () => {
     const routes = routesOnDisk();
     expect(routes).toContain("/today");
+    const farmScreens = new Set(routesOnDisk("app/(farm)"));
+    expect(farmScreens.has("/today") && !farmScreens.has("/sign-in")).toBe(true);
     const context = await phoneContext(browser!, app.origin);
     const page = await context.newPage();
     await signIn(page, owner);
@@ -127,6 +129,8 @@ describe("every screen, as the Owner on a phone", () => {
     const axeFindings: Finding[] = [];
     const small: Finding[] = [];
     const wide: Finding[] = [];
+    const landmarks: Finding[] = [];
+    const desk: Finding[] = [];
     for (const route of routes) {
       if (route === "/dev/mailbox") continue; // a local stand-in for e-mail, not a farm screen (off in production)
       const url = concreteUrl(route);
@@ -137,6 +141,8 @@ describe("every screen, as the Owner on a phone", () => {
       await page.screenshot({ path: path.join(SHOTS, `${name}-phone.png`), fullPage: true });
       for (const what of await runAxe(page)) axeFindings.push({ route, what });
       for (const what of await smallTargets(page)) small.push({ route, what });
+      const mains = await page.locator("main").count();
+      if (mains !== 1) landmarks.push({ route, what: `${mains} <main> elements` });
       const width = await page.evaluate(() => document.documentElement.scrollWidth);
       if (width > 390) {
         // Name the outermost elements that reach past the screen's edge, so the fix is easy to find.
@@ -150,11 +156,23 @@ describe("every screen, as the Owner on a phone", () => {
       }
       await page.setViewportSize({ width: 1280, height: 800 });
       await settle(page);
+      if (farmScreens.has(route)) {
+        // At a desk the farm screens get the side column, not the phone's bottom bar.
+        const nav = page.getByRole("navigation", { name: "Main" });
+        const box = (await nav.count()) === 1 ? await nav.boundingBox() : null;
+        if (!box || box.x > 0 || box.height < 500) desk.push({ route, what: `main navigation at ${JSON.stringify(box)}` });
+      }
       await page.screenshot({ path: path.join(SHOTS, `${name}-desktop.png`), fullPage: true });
     }
     const list = (fs: Finding[]) => fs.map((f) => `${f.route}: ${f.what}`);
     // All three at once, so one run names every problem (axe rule names included).
-    expect({ axe: list(axeFindings), small: list(small), wide: list(wide) }).toEqual({ axe: [], small: [], wide: [] });
+    expect({ axe: list(axeFindings), small: list(small), wide: list(wide), landmarks: list(landmarks), desk: list(desk) }).toEqual({
+      axe: [],
+      small: [],
+      wide: [],
+      landmarks: [],
+      desk: [],
+    });
     await context.close();
   }, 600_000);
 });

@@ -184,7 +184,7 @@ describe("offline-first phone", () => {
     await page.getByTestId("all-good").click();
     await page.waitForURL(/\/scan/);
     await waitForPill(page, /1 waiting/);
-    await page.getByRole("button", { name: "More" }).click();
+    await page.getByRole("button", { name: "Farm" }).click();
     await page.getByRole("button", { name: "Sign out of this phone" }).click();
     await page.getByRole("alert").getByText("Not everything is sent yet").waitFor();
     await page.screenshot({ path: path.join(ARTIFACTS, "offline-07-sign-out-warning.png") });

@@ -145,7 +145,7 @@ describe("Records: exports, backup and restore on screen", () => {
   it("the Owner downloads every export and the backup from the Records screen", async () => {
     const { context, page } = await openAs(demo, owner);
     try {
-      await page.getByRole("navigation", { name: "Main" }).getByRole("button", { name: "More" }).click();
+      await page.getByRole("navigation", { name: "Main" }).getByRole("button", { name: "Farm" }).click();
       await page.getByRole("link", { name: /Records/ }).click();
       await page.waitForURL(/\/records$/);
       await page.getByTestId("export-bags").waitFor();

@@ -5,8 +5,8 @@ export const metadata: Metadata = { title: "Records" };
 
 export default function RecordsPage() {
   return (
-    <main className="mx-auto max-w-xl px-4 pb-28 pt-4">
+    <div className="mx-auto max-w-xl lg:max-w-4xl px-4 pb-28 pt-4">
       <RecordsScreen />
-    </main>
+    </div>
   );
 }

@@ -4,6 +4,7 @@ import { buildTodaysRound, type RoundBag, type TodaysRound } from "@/lib/domain/
 import { defaultCheckCadence, type CheckCadence, type CheckFindings, type NextCheckReason } from "@/lib/domain/schedule";
 import { buildSowQueue, type PulledBag, type SowItem, type SowRule } from "@/lib/domain/sow-queue";
 import type { Check } from "@/lib/schemas/check";
+import type { StoreKind } from "@/lib/schemas/vocabulary";
 import { findRootsWatchDay, type FarmWindow } from "@/lib/domain/farm-history";
 
 // From the phone store's rows to lib/domain's round: no numbers are worked out here, only the shapes change.
@@ -171,4 +172,22 @@ export function describeRoundCount(due: number, urgent: number, queue: readonly 
   if (!checks && !sow) return "No bags due for a check.";
   if (!checks) return `No bags due for a check; ${sow}.`;
   return `${checks}${sow ? `; ${sow}` : ""}.`;
+}
+
+const kindPlurals: Record<StoreKind, string> = { fridge: "fridges", freezer: "freezers", cold_frame: "cold frames" };
+
+/** Today's heading, said as a grower would at the fridge door: "4 bags due in 2 fridges", "1 bag due in Barn
+ *  fridge", "2 pulled bags to sow", "Nothing due today". `stores` are the stores that have a bag due. */
+export function roundHeadline(due: number, stores: readonly { name: string; kind: StoreKind }[], toSow: number): string {
+  const bags = (n: number) => `${n} ${n === 1 ? "bag" : "bags"}`;
+  const sow = toSow ? `${toSow} pulled ${toSow === 1 ? "bag" : "bags"} to sow` : "";
+  if (due === 0) return sow ? sow.charAt(0).toUpperCase() + sow.slice(1) : "Nothing due today";
+  const kinds = new Set(stores.map((s) => s.kind));
+  const where =
+    stores.length === 1
+      ? stores[0]!.name
+      : kinds.size === 1
+        ? `${stores.length} ${kindPlurals[[...kinds][0]!]}`
+        : `${stores.length} cold stores`;
+  return `${bags(due)} due in ${where}${toSow ? `, ${toSow} to sow` : ""}`;
 }

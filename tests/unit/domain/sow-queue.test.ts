@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { Temporal } from "@js-temporal/polyfill";
 import { buildSowQueue, defaultSowRule, describeTimeOut, judgeSowing, type PulledBag } from "@/lib/domain";
-import { buildSowQueueFromRows, describeRoundCount, summarizeSowQueue } from "@/lib/domain/rows/round-input";
+import { buildSowQueueFromRows, describeRoundCount, roundHeadline, summarizeSowQueue } from "@/lib/domain/rows/round-input";
 
 // The sowing rule is common practice, not a published figure: sow within a few days of the pull (3 here), and a bag
 // whose roots show the same day or the next (1), because young radicles break and dry out easily. Forest Research's
@@ -109,5 +109,23 @@ describe("dates in the words", () => {
     const short = (d: string) => `day ${d.slice(8)}`;
     expect(judgeSowing(bag("X", "2024-03-06"), today, defaultSowRule, short).note).toBe("4 days out of the cold: late to sow (sow by day 09). Sow now, or note why it waits.");
     expect(judgeSowing(bag("X", "2024-03-10"), today, defaultSowRule, short).note).toBe("Pulled today: sow by day 13.");
+  });
+});
+
+describe("Today's heading (roundHeadline)", () => {
+  // Product wording (PRODUCT.md vocabulary); no outside source: the heading only counts.
+  const barn = { name: "Barn fridge", kind: "fridge" as const };
+  const shed = { name: "Shed fridge", kind: "fridge" as const };
+  const chest = { name: "Chest freezer", kind: "freezer" as const };
+  it.each([
+    [4, [barn, shed], 0, "4 bags due in 2 fridges"],
+    [1, [barn], 0, "1 bag due in Barn fridge"],
+    [3, [barn, chest], 0, "3 bags due in 2 cold stores"],
+    [2, [chest, { name: "Garage freezer", kind: "freezer" as const }], 1, "2 bags due in 2 freezers, 1 to sow"],
+    [0, [], 2, "2 pulled bags to sow"],
+    [0, [], 1, "1 pulled bag to sow"],
+    [0, [], 0, "Nothing due today"],
+  ])("%i due in %j, %i to sow → %s", (due, stores, toSow, words) => {
+    expect(roundHeadline(due, stores, toSow)).toBe(words);
   });
 });
