@@ -11,6 +11,7 @@ import type { Check } from "@/lib/schemas/check";
 import type { Photo } from "@/lib/schemas/photo";
 import { vocabularyLabels } from "@/lib/schemas/vocabulary";
 import { addDaysToIsoDay, adviseOnCheck, formatBagCode, formatTemperature, measureColdExposure, prepareStoreReadings, scheduleBagCheck, type ColdExposure, type EffectiveWindow } from "@/lib/domain";
+import { WorkedOut } from "@/components/ui/WorkedOut";
 import { buttonClass } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
 import { StateBadge } from "@/components/ui/StateBadge";
@@ -284,15 +285,17 @@ function ColdDays({
           {store.kind === "freezer" ? (
             <p className="text-label text-ink-soft">This is a freezer: a different treatment from a fridge, not more cold.</p>
           ) : null}
-          <ul className="list-disc space-y-1 pl-5 text-label text-ink-soft">
-            {data.readings.length === 0 ? <li>This store has no readings on this phone since the bag started.</li> : null}
-            {e.assumptions.map((a) => (
-              <li key={a}>{a}</li>
-            ))}
-            {e.gaps.length === 0 ? (
-              <li>Had the readings stopped for more than 6 hours, that time would be counted as cold, as a working fridge stays in its band.</li>
-            ) : null}
-          </ul>
+          <WorkedOut testId="cold-worked-out">
+            <ul className="list-disc space-y-1 pl-5">
+              {data.readings.length === 0 ? <li>This store has no readings on this phone since the bag started.</li> : null}
+              {e.assumptions.map((a) => (
+                <li key={a}>{a}</li>
+              ))}
+              {e.gaps.length === 0 ? (
+                <li>Had the readings stopped for more than 6 hours, that time would be counted as cold, as a working fridge stays in its band.</li>
+              ) : null}
+            </ul>
+          </WorkedOut>
           <Link href={`/stores/view?id=${encodeURIComponent(store.id)}`} className="inline-flex min-h-tap items-center text-label font-semibold text-glacier-700 underline underline-offset-4">
             {store.name}: readings and chart
           </Link>

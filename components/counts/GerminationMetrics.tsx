@@ -1,4 +1,5 @@
 import type { LabelledValue } from "@/lib/domain";
+import { WorkedOut } from "@/components/ui/WorkedOut";
 import type { SowingSummary } from "./count-series";
 
 const pct = (x: number) => `${(100 * x).toFixed(0)} %`;
@@ -8,9 +9,6 @@ function Metric({ v, unit, digits = 1 }: { v: LabelledValue; unit?: string; digi
     <div className="rounded-xl bg-rime-50 p-3">
       <dt className="text-label font-semibold text-ink">{v.label}</dt>
       <dd className="text-title font-bold text-glacier-800">{v.value === null ? "—" : `${v.value.toFixed(digits)}${unit ? ` ${unit}` : ""}`}</dd>
-      <dd className="text-label text-ink-soft">
-        <span className="font-mono">{v.formula}</span> · {v.source}
-      </dd>
     </div>
   );
 }
@@ -33,10 +31,7 @@ export function GerminationMetrics({ summary }: { summary: SowingSummary }) {
         <dt className="text-label font-semibold text-ink">{metrics.germinationPercent.label}</dt>
         <dd className="text-display font-bold text-moss-700">{metrics.germinationPercent.value?.toFixed(0)} %</dd>
         <dd className="text-label text-ink">
-          {metrics.germinated} of {metrics.sown} seeds · 95 % interval {pct(interval.lower)}–{pct(interval.upper)} (Wilson score, Wilson 1927)
-        </dd>
-        <dd className="text-label text-ink-soft">
-          <span className="font-mono">{metrics.germinationPercent.formula}</span> · {metrics.germinationPercent.source}
+          {metrics.germinated} of {metrics.sown} seeds · 95 % interval {pct(interval.lower)}–{pct(interval.upper)}
         </dd>
       </div>
       <Metric v={metrics.meanGerminationTime} unit="days" />
@@ -44,6 +39,14 @@ export function GerminationMetrics({ summary }: { summary: SowingSummary }) {
       <Metric v={metrics.maguireSpeed} unit="seeds/day" digits={2} />
       <Metric v={metrics.coefficientOfVelocity} digits={1} />
     </dl>
+      <WorkedOut testId="germination-worked-out">
+        <p>95 % interval: Wilson score interval (Wilson 1927).</p>
+        {[metrics.germinationPercent, metrics.meanGerminationTime, metrics.t50Coolbear, metrics.maguireSpeed, metrics.coefficientOfVelocity].map((v) => (
+          <p key={v.label}>
+            {v.label}: <span className="font-mono">{v.formula}</span> · {v.source}
+          </p>
+        ))}
+      </WorkedOut>
       {metrics.firstDay !== null ? (
         <p className="text-label text-ink-soft">
           First seedlings on day {metrics.firstDay}; most on day {metrics.peakDays.join(", ")}; last new ones on day {metrics.lastDay}.

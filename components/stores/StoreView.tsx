@@ -16,7 +16,7 @@ import { StateBadge } from "@/components/ui/StateBadge";
 import { useMember } from "@/components/season/use-member";
 import { useToday } from "@/components/bags/use-farm-rows";
 import { formatShortDay as formatDay, formatStamp } from "@/components/bags/format-day";
-import { buildChartPoints, describeBand, measureBagCold, measureStore } from "./store-metrics";
+import { buildChartPoints, describeBand, describeStoreColdLoss, measureBagCold, measureStore } from "./store-metrics";
 import { bandOfStoreKind } from "@/lib/domain/store-rules";
 import { ReadingsChart } from "./ReadingsChart";
 import { DryingPanel } from "@/components/learn/DryingPanel";
@@ -78,6 +78,7 @@ export function StoreView() {
       return { bag, lot, cold, state };
     })
     .sort((a, b) => (a.bag.box ?? "").localeCompare(b.bag.box ?? "") || a.bag.code.localeCompare(b.bag.code));
+  const coldLoss = describeStoreColdLoss(bagRows.map((r) => r.cold.lostDays));
 
   return (
     <div className="mx-auto max-w-xl lg:max-w-4xl space-y-4 px-4 pb-28 pt-4">
@@ -183,6 +184,11 @@ export function StoreView() {
         <p className="mb-3 text-label text-ink-soft">
           Effective cold days count only the time inside each protocol’s band; days lost to warm or frozen spells move the pull window later.
         </p>
+        {coldLoss ? (
+          <p className="mb-3 rounded-card border-l-4 border-wheat-600 bg-wheat-100 p-3 text-label font-semibold text-ink" data-testid="store-cold-loss">
+            {coldLoss}
+          </p>
+        ) : null}
         {bagRows.length === 0 ? <p className="text-label text-ink-soft">No bags here now.</p> : null}
         <ul className="divide-y divide-rime-100">
           {bagRows.map(({ bag, lot, cold, state }) => (
@@ -203,8 +209,8 @@ export function StoreView() {
                   {cold.lostDays ? ` · ${cold.lostDays} day${cold.lostDays === 1 ? "" : "s"} lost` : " · none lost"}
                 </p>
               ) : null}
-              {/* Why the window moved, or why nothing was measured; a fridge that held its band needs no words. */}
-              {cold.lostDays > 0 || !cold.exposure ? <p className="text-label text-ink-soft">{cold.reason}</p> : null}
+              {/* Why nothing was measured; how far the lost cold moves the windows is said once above. */}
+              {!cold.exposure ? <p className="text-label text-ink-soft">{cold.reason}</p> : null}
               {cold.window && cold.shifted ? (
                 <p className="text-label text-ink">
                   Pull window {formatDay(cold.shifted.opensOn)}

@@ -104,3 +104,17 @@ export function measureBagCold(
   }
   return { exposure, window: effective.planned, shifted: effective.window, lostDays: effective.lostDays, reason: effective.reason };
 }
+
+/** Said once for the whole store instead of under every bag: how far the cold it lost moves its bags' pull
+ *  windows ("Cold lost here moves these 3 bags' pull windows 4 days later."; mixed amounts listed by size). */
+export function describeStoreColdLoss(lostDays: readonly number[]): string | null {
+  const moved = lostDays.filter((d) => d > 0);
+  if (moved.length === 0) return null;
+  const days = (n: number) => `${n} ${n === 1 ? "day" : "days"}`;
+  const which = moved.length === lostDays.length ? (moved.length === 1 ? "this bag's pull window" : `these ${moved.length} bags' pull windows`) : `the pull windows of ${moved.length} of these ${lostDays.length} bags`;
+  const by = new Map<number, number>();
+  for (const d of moved) by.set(d, (by.get(d) ?? 0) + 1);
+  if (by.size === 1) return `Cold lost here moves ${which} ${days(moved[0]!)} later.`;
+  const parts = [...by.entries()].sort((a, b) => b[0] - a[0]).map(([d, n]) => `${n} by ${days(d)}`);
+  return `Cold lost here moves ${which} later: ${parts.join(", ")}.`;
+}

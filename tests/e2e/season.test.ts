@@ -56,8 +56,11 @@ describe("season screens on a phone", () => {
     await page.getByText("Saved:").waitFor();
     const rows = await waitForRows<{ n: number }>(app.databaseFile, "SELECT germinated_total AS n FROM counts WHERE sowing_id = ? ORDER BY counted_on DESC, created_at DESC LIMIT 1", [bag.sowing_id], (r) => r[0]?.n === bag.last + 2);
     expect(rows[0].n).toBe(bag.last + 2);
-    // Germination % with its formula and source is on the screen.
-    await page.getByText("100·N/Nt").first().waitFor();
+    // Germination % with its formula and source is in the page, folded under "How this is worked out".
+    const worked = page.getByTestId("germination-worked-out").first();
+    await expect(worked.getByText("100·N/Nt").isVisible()).resolves.toBe(false);
+    await worked.getByText("How this is worked out").click();
+    await worked.getByText("100·N/Nt").first().waitFor();
   });
 
   it("records a sowing for a pulled bag; the bag is sown on the server", async () => {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { buildChartPoints, describeBand, measureBagCold } from "@/components/stores/store-metrics";
+import { buildChartPoints, describeBand, describeStoreColdLoss, measureBagCold } from "@/components/stores/store-metrics";
 import type { ProtocolForPlan } from "@/lib/domain/schedule";
 import type { ProtocolRow } from "@/lib/client/db";
 
@@ -73,5 +73,18 @@ describe("chart helpers", () => {
     ];
     expect(buildChartPoints(rows, "F", Date.parse("2025-12-15T00:00:00Z")).map((p) => p.value)).toEqual([32, 41]);
     expect(buildChartPoints(rows, "C", null)).toHaveLength(3);
+  });
+});
+
+describe("the store's cold loss, said once", () => {
+  // Product wording; the lost days themselves come from the effective-window rule tested above.
+  it.each([
+    [[0, 0], null],
+    [[3], "Cold lost here moves this bag's pull window 3 days later."],
+    [[4, 4, 4], "Cold lost here moves these 3 bags' pull windows 4 days later."],
+    [[1, 0], "Cold lost here moves the pull windows of 1 of these 2 bags 1 day later."],
+    [[2, 5, 2, 0], "Cold lost here moves the pull windows of 3 of these 4 bags later: 1 by 5 days, 2 by 2 days."],
+  ])("%j → %s", (lost, words) => {
+    expect(describeStoreColdLoss(lost)).toBe(words);
   });
 });
