@@ -1,7 +1,8 @@
 "use client";
 
 import Link from "next/link";
-import { useState } from "react";
+import { useEffect, useState } from "react";
+import { useRouter } from "next/navigation";
 import Dexie from "dexie";
 import { useLiveQuery } from "dexie-react-hooks";
 import { getLocalDb } from "@/lib/client/db";
@@ -17,6 +18,15 @@ import { StoreGlyph } from "./StoreGlyph";
 export function StoresScreen() {
   const { can, unit } = useMember();
   const [adding, setAdding] = useState(false);
+  const router = useRouter();
+  // ?add=1 (a new farm's first steps) opens the form at once; saving it goes back to those steps.
+  const [fromFirstSteps, setFromFirstSteps] = useState(false);
+  useEffect(() => {
+    if (new URLSearchParams(window.location.search).get("add") === "1") {
+      setAdding(true);
+      setFromFirstSteps(true);
+    }
+  }, []);
   const data = useLiveQuery(async () => {
     const db = getLocalDb();
     const stores = (await db.stores.toArray()).filter((s) => !s.deleted_at).sort((a, b) => a.name.localeCompare(b.name));
@@ -48,7 +58,12 @@ export function StoresScreen() {
       {adding ? (
         <Card className="mb-4">
           <h2 className="mb-3 text-body font-bold text-glacier-800">New cold store</h2>
-          <StoreForm onDone={() => setAdding(false)} />
+          <StoreForm
+            onDone={(id) => {
+              setAdding(false);
+              if (fromFirstSteps && id) router.push("/today");
+            }}
+          />
         </Card>
       ) : null}
       {data === undefined ? <p className="text-ink-soft">Opening the farm on this phone…</p> : null}

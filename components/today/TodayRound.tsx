@@ -32,6 +32,8 @@ import {
 } from "@/lib/domain/rows/round-input";
 import type { SowItem } from "@/lib/domain/sow-queue";
 import { ScanGlyph } from "./ScanGlyph";
+import { FirstSteps } from "./FirstSteps";
+import { listFirstSteps } from "./first-steps";
 
 // Today: the bags due for a check, worked out on the phone from the phone store (works with no signal).
 
@@ -55,7 +57,9 @@ async function loadRound(today: string) {
     round.stores.map((st) => ({ name: st.storeName, kind: kindOf.get(st.storeId) ?? "fridge" })),
     sowQueue.length,
   );
-  return { round, sowQueue, identity, fetched, urgent, headline, bagCount: rows.bags.length };
+  const alive = <T extends { deleted_at?: string | null }>(xs: readonly T[]) => xs.filter((x) => !x.deleted_at).length;
+  const firstSteps = listFirstSteps({ stores: alive(rows.stores), lots: alive(rows.lots), bags: alive(rows.bags) });
+  return { round, sowQueue, identity, fetched, urgent, headline, firstSteps, bagCount: rows.bags.length };
 }
 
 const longDay = new Intl.DateTimeFormat("en-GB", { weekday: "long", day: "numeric", month: "long" });
@@ -71,7 +75,7 @@ export function TodayRound() {
       {/* The heading is the fridge-side count itself ("4 bags due in 2 fridges"); the day follows it in pencil. */}
       <header className="border-l-4 border-glacier-600 pl-3">
         <h1 className="text-title font-bold leading-snug text-glacier-800" data-testid="round-headline">
-          {data && (data.fetched || data.bagCount > 0) ? data.headline : "Today\u2019s round"}
+          {data && data.fetched && data.firstSteps ? "A new farm: four steps to the first bag" : data && (data.fetched || data.bagCount > 0) ? data.headline : "Today\u2019s round"}
         </h1>
         <p className="min-h-[1.5em] text-label text-ink-soft">{dayLabel ? `Today\u2019s round · ${dayLabel}` : "Today\u2019s round"}</p>
         {data && (data.fetched || data.bagCount > 0) ? (
@@ -81,19 +85,17 @@ export function TodayRound() {
         ) : null}
       </header>
 
-      <Link href="/scan" className={buttonClass("primary", "xl", "w-full text-display")}>
-        <ScanGlyph className="h-9 w-9" />
-        Scan a bag
-      </Link>
+      {/* A farm with no bags yet has nothing to scan: its first steps come first instead. */}
+      {data?.firstSteps ? null : (
+        <Link href="/scan" className={buttonClass("primary", "xl", "w-full text-display")}>
+          <ScanGlyph className="h-9 w-9" />
+          Scan a bag
+        </Link>
+      )}
 
       {data === undefined ? <p className="text-ink-soft">Opening the round…</p> : null}
 
-      {data && data.fetched && data.bagCount === 0 ? (
-        <Card>
-          <p className="font-semibold">No bags on this farm yet.</p>
-          <p className="text-label text-ink-soft">Bags you set up appear here on the days they are due for a check.</p>
-        </Card>
-      ) : null}
+      {data && data.fetched && data.firstSteps ? <FirstSteps steps={data.firstSteps} /> : null}
 
       {data && data.round.counts.due + data.sowQueue.length > 0 ? (
         <ul className="flex flex-wrap gap-2" aria-label="Due today by reason">

@@ -62,6 +62,28 @@ describe("a farm and its team, in the browser", () => {
     expect(cookie).toMatchObject({ httpOnly: true, sameSite: "Lax", path: "/" });
   });
 
+  it("a new farm's Today is its first steps in order; a cold store added from them comes back with that step done", async () => {
+    const steps = ownerPage.getByTestId("first-steps");
+    await steps.waitFor({ timeout: 30_000 });
+    await expect(ownerPage.getByTestId("round-headline").textContent()).resolves.toBe("A new farm: four steps to the first bag");
+    // Nothing to scan yet: the first step is the first button.
+    expect(await ownerPage.getByRole("link", { name: /scan a bag/i }).count()).toBe(0);
+    expect(await steps.getByRole("listitem").allTextContents()).toEqual([
+      expect.stringContaining("Add a cold store"),
+      expect.stringContaining("Add a seed lot"),
+      expect.stringContaining("Set up the first bag"),
+      expect.stringContaining("Print its label"),
+    ]);
+    await shoot(ownerPage, "accounts-first-steps");
+    await steps.getByRole("link", { name: "Add a cold store" }).click();
+    await ownerPage.waitForURL(/\/stores\?add=1/);
+    await ownerPage.getByLabel("Name").fill("Barn fridge");
+    await ownerPage.getByRole("button", { name: "Add cold store" }).click();
+    await ownerPage.waitForURL(/\/today$/);
+    await expect.poll(() => steps.getByRole("listitem").first().getAttribute("data-done")).toBe("true");
+    await steps.getByRole("link", { name: "Add a seed lot" }).waitFor();
+  });
+
   it("invites a Helper from the Team page; the e-mail arrives in the local mailbox with its link", async () => {
     await ownerPage.goto("/team");
     await ownerPage.getByLabel("E-mail").fill("moss@bramblewick.example");
