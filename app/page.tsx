@@ -36,7 +36,7 @@ export default function LandingPage() {
         </Link>
       </div>
 
-      <aside className="rounded-card border border-rime-200 bg-white p-4 text-label text-ink-soft">
+      <aside className="rounded-card border border-rime-200 bg-paper p-4 text-label text-ink-soft">
         <strong className="text-ink">Keep seed apart from food.</strong> Seal and label every bag, box it away from food
         and out of reach of children: some seeds are toxic and treated seed is poisonous. Follow local rules and your
         seed supplier&apos;s guidance.

@@ -92,7 +92,7 @@ export function BagActions({ bag, state, stores, today, can }: { bag: Bag; state
       ) : null}
 
       {panel === "edit" ? (
-        <section aria-label="Edit the bag" className="rounded-card border-2 border-glacier-600 bg-white p-3">
+        <section aria-label="Edit the bag" className="rounded-card border-2 border-glacier-600 bg-paper p-3">
           <BagEditForm bag={bag} stores={stores} onDone={() => setPanel(null)} />
         </section>
       ) : null}

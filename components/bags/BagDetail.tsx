@@ -139,7 +139,7 @@ function BagDetailView({ data }: { data: BagDetailData }) {
           <i>{lot?.species ?? "Unknown lot"}</i>
           {lot?.common_name ? <span className="text-body text-ink-soft"> · {lot.common_name}</span> : null}
         </p>
-        <dl className="grid grid-cols-2 gap-x-4 gap-y-2 rounded-card bg-white p-3 text-label shadow-sm">
+        <dl className="grid grid-cols-2 gap-x-4 gap-y-2 rounded-card bg-paper p-3 text-label shadow-sm">
           <Fact term="Lot">{lot ? [lot.source, lot.year].filter(Boolean).join(", ") || "—" : "—"}</Fact>
           <Fact term="Protocol">
             {protocol ? (
@@ -422,7 +422,7 @@ function History({ data, memberNames }: { data: BagDetailData; memberNames: Read
       {lines.length === 0 ? (
         <p className="text-label text-ink-soft">No edits recorded since the bag was set up{data.bag.created_at ? ` on ${formatStamp(data.bag.created_at)}` : ""}.</p>
       ) : (
-        <ul className="divide-y divide-rime-200 rounded-card bg-white text-label shadow-sm">
+        <ul className="divide-y divide-rime-200 rounded-card bg-paper text-label shadow-sm">
           {lines.map((l) => (
             <li key={l.id} className="p-3">
               <p>

@@ -183,7 +183,7 @@ export function BagsTable() {
         </div>
 
         {showFilters ? (
-          <div id="bag-more-filters" className="space-y-3 rounded-card border border-rime-200 bg-white p-3">
+          <div id="bag-more-filters" className="space-y-3 rounded-card border border-rime-200 bg-paper p-3">
             <ChipRow label="Pull window">
               {windowFilters.map((w) => (
                 <Chip key={w} pressed={filters.window === w} onClick={() => setFilters((f) => ({ ...f, window: f.window === w ? null : w }))}>
@@ -213,7 +213,7 @@ export function BagsTable() {
       </div>
 
       {sortedRows.length === 0 ? (
-        <p className="mt-6 rounded-card bg-white p-4 text-body text-ink-soft">
+        <p className="mt-6 rounded-card bg-paper p-4 text-body text-ink-soft">
           {allRows.length === 0 ? "No bags yet on this phone." : "No bag matches these filters."}
         </p>
       ) : null}
@@ -222,7 +222,7 @@ export function BagsTable() {
       <ul className="mt-4 space-y-2 md:hidden" aria-label="Bags">
         {sortedRows.map((r) => (
           <li key={r.id}>
-            <Link href={viewHref(r.id)} className="block rounded-card border border-rime-200 bg-white p-3 shadow-sm active:bg-rime-100">
+            <Link href={viewHref(r.id)} className="block rounded-card border border-rime-200 bg-paper p-3 shadow-sm active:bg-rime-100">
               <div className="flex items-start justify-between gap-2">
                 <span className="font-mono text-title font-bold tracking-wide text-glacier-800">{r.codeShown}</span>
                 <StateBadge state={r.state} />
@@ -242,7 +242,7 @@ export function BagsTable() {
 
       {/* Wide screens: a real table with sortable headers. */}
       {sortedRows.length ? (
-        <table className="mt-4 hidden w-full border-collapse overflow-hidden rounded-card bg-white text-left text-body shadow-sm md:table">
+        <table className="mt-4 hidden w-full border-collapse overflow-hidden rounded-card bg-paper text-left text-body shadow-sm md:table">
           <thead className="bg-rime-100 text-label">
             <tr>
               {table.getHeaderGroups()[0].headers.map((h) => {

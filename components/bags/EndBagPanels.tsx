@@ -58,7 +58,7 @@ export function DiscardPanel({
   const [day, setDay] = useState(today);
   const [reason, setReason] = useState(defaultReason);
   return (
-    <section aria-label="Discard the bag" className="space-y-3 rounded-card border-2 border-ember-600 bg-white p-3">
+    <section aria-label="Discard the bag" className="space-y-3 rounded-card border-2 border-ember-600 bg-paper p-3">
       <Caution title="If there is mould" tone="strong">
         {cautionTexts.mould}
       </Caution>

@@ -355,7 +355,7 @@ export function CheckSheet() {
                     <label
                       key={a}
                       className={`flex min-h-tap cursor-pointer items-center gap-2 rounded-card border-2 px-3 py-2 text-label font-semibold has-[:focus-visible]:outline has-[:focus-visible]:outline-3 has-[:focus-visible]:outline-glacier-500 ${
-                        on ? "border-glacier-700 bg-rime-200 text-glacier-800" : "border-rime-300 bg-white"
+                        on ? "border-glacier-700 bg-rime-200 text-glacier-800" : "border-rime-300 bg-paper"
                       }`}
                     >
                       <input type="checkbox" className="h-5 w-5 accent-glacier-700" checked={on} onChange={() => field.onChange(toggleAction(field.value, a))} />
@@ -386,7 +386,7 @@ export function CheckSheet() {
         </Field>
 
         <div className="space-y-2">
-          <label htmlFor="check-photo" className="flex min-h-14 cursor-pointer items-center justify-center gap-2 rounded-card border-2 border-dashed border-glacier-600 bg-white px-4 text-body font-semibold text-glacier-700">
+          <label htmlFor="check-photo" className="flex min-h-14 cursor-pointer items-center justify-center gap-2 rounded-card border-2 border-dashed border-glacier-600 bg-paper px-4 text-body font-semibold text-glacier-700">
             <span aria-hidden="true">◉</span> {photo ? "Retake photo" : "Take a photo"}
           </label>
           <input id="check-photo" type="file" accept="image/*" capture="environment" className="sr-only" onChange={(e) => void pickPhoto(e.target.files?.[0])} />

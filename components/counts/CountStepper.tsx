@@ -70,7 +70,7 @@ export function CountStepper({ sowing, totals, today, canCount }: { sowing: Sowi
               setMessage(null);
               setValue(Math.min(n, 10_000_000));
             }}
-            className="min-h-20 w-full min-w-0 flex-1 rounded-card border-2 border-rime-300 bg-white text-center text-display font-bold text-ink focus:border-glacier-500"
+            className="min-h-20 w-full min-w-0 flex-1 rounded-card border-2 border-rime-300 bg-paper text-center text-display font-bold text-ink focus:border-glacier-500"
             aria-describedby={`${inputId}-why`}
             aria-invalid={!verdict.ok}
           />

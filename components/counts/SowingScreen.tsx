@@ -61,7 +61,7 @@ function BagPicker() {
       <ul className="space-y-2">
         {rows?.map(({ bag, lot, sow }) => (
           <li key={bag.id}>
-            <Link href={`/sowing?bag=${bag.id}`} className="flex min-h-tap items-center justify-between gap-3 rounded-card border border-rime-200 bg-white p-4 hover:border-glacier-500">
+            <Link href={`/sowing?bag=${bag.id}`} className="flex min-h-tap items-center justify-between gap-3 rounded-card border border-rime-200 bg-paper p-4 hover:border-glacier-500">
               <span>
                 <span className="block font-mono font-bold tracking-wider">{formatBagCode(bag.code)}</span>
                 <span className="block text-label text-ink-soft">{lot?.species ?? "Unknown lot"}</span>

@@ -149,7 +149,7 @@ export function LabelSheet() {
             </Button>
           </div>
           {farm && candidates.length === 0 ? <p className="text-ink-soft">No bags planned or in the cold here.</p> : null}
-          <ul className="max-h-80 space-y-1 overflow-y-auto rounded-card border border-rime-200 bg-white p-2">
+          <ul className="max-h-80 space-y-1 overflow-y-auto rounded-card border border-rime-200 bg-paper p-2">
             {candidates.map((r) => (
               <BagPick key={r.id} row={r} checked={chosen.has(r.id)} onToggle={() => toggle(r.id)} />
             ))}

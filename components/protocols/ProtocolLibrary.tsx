@@ -72,7 +72,7 @@ export function ProtocolLibrary() {
           const citations = listProtocolCitations(row);
           return (
             <li key={row.id}>
-              <Link href={`/protocols/view?id=${encodeURIComponent(row.id)}`} className="block rounded-card border border-rime-200 bg-white p-3 shadow-sm active:bg-rime-100">
+              <Link href={`/protocols/view?id=${encodeURIComponent(row.id)}`} className="block rounded-card border border-rime-200 bg-paper p-3 shadow-sm active:bg-rime-100">
                 <div className="flex items-start justify-between gap-2">
                   <p className="text-body font-semibold">
                     <i>{p.species}</i>

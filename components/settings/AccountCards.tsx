@@ -61,7 +61,7 @@ export function FarmSwitcherCard({ identity }: { identity: IdentityWithFarms }) 
                   onClick={() => void open(farm.id)}
                   disabled={busy !== null}
                   aria-label={`Switch to ${farm.name} (${role})`}
-                  className="flex min-h-tap w-full items-center justify-between gap-3 rounded-xl border-2 border-rime-200 bg-white px-3 py-2 text-left hover:bg-rime-50 disabled:opacity-60"
+                  className="flex min-h-tap w-full items-center justify-between gap-3 rounded-xl border-2 border-rime-200 bg-paper px-3 py-2 text-left hover:bg-rime-50 disabled:opacity-60"
                 >
                   <span className="min-w-0">
                     <span className="block break-words font-semibold">{farm.name}</span>

@@ -80,7 +80,7 @@ function FirstPull() {
   const offline = !status.online || status.phase === "offline";
   return (
     <div className="mx-auto max-w-xl px-4 pt-4" role="status" aria-live="polite">
-      <div className="rounded-card border border-rime-200 bg-white p-4">
+      <div className="rounded-card border border-rime-200 bg-paper p-4">
         <p className="font-semibold">{offline ? "Waiting for signal to load your farm" : "Loading your farm onto this phone"}</p>
         <p className="mt-1 text-label text-ink-soft">
           {offline ? "The first time on a phone needs a connection. After that, Rimebook works without one." : "Once this is done, every screen works without signal."}

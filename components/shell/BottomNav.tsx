@@ -24,7 +24,7 @@ export function BottomNav() {
   return (
     <>
       {menu && <NavMenu which={menu} onClose={() => setMenu(null)} />}
-      <nav aria-label="Main" className="no-print lg:hidden fixed inset-x-0 bottom-0 z-40 border-t border-rime-200 bg-white/95 pb-[env(safe-area-inset-bottom)] backdrop-blur">
+      <nav aria-label="Main" className="no-print lg:hidden fixed inset-x-0 bottom-0 z-40 border-t border-rime-200 bg-paper/95 pb-[env(safe-area-inset-bottom)] backdrop-blur">
         <div className="mx-auto flex max-w-xl">
           <Link href="/today" className={tab(place === "today")} aria-current={place === "today" ? "page" : undefined}>
             <TodayGlyph />
@@ -57,7 +57,7 @@ function NavMenu({ which, onClose }: { which: "season" | "farm"; onClose: () => 
   return (
     <div className="fixed inset-0 z-30 bg-ink/30 lg:hidden" onClick={onClose}>
       <div className="absolute inset-x-0 bottom-16 mx-auto max-w-xl px-3 pb-[env(safe-area-inset-bottom)]" onClick={(e) => e.stopPropagation()}>
-        <ul className="overflow-hidden rounded-card border border-rime-200 bg-white shadow-xl" aria-label={which === "season" ? "Season" : "Farm"}>
+        <ul className="overflow-hidden rounded-card border border-rime-200 bg-paper shadow-xl" aria-label={which === "season" ? "Season" : "Farm"}>
           {links.map((l) => (
             <li key={l.href} className="border-b border-rime-100 last:border-0">
               <Link href={l.href} className="flex min-h-14 flex-col justify-center px-4 py-2 hover:bg-rime-50">

@@ -42,7 +42,7 @@ export function SyncDetails({ status, onClose }: { status: SyncStatus; onClose: 
         role="dialog"
         aria-modal="true"
         aria-labelledby="sync-details-title"
-        className="max-h-[85dvh] w-full max-w-lg overflow-y-auto rounded-t-card bg-white p-5 shadow-xl sm:rounded-card"
+        className="max-h-[85dvh] w-full max-w-lg overflow-y-auto rounded-t-card bg-paper p-5 shadow-xl sm:rounded-card"
         onClick={(e) => e.stopPropagation()}
       >
         <div className="flex items-start justify-between gap-3">

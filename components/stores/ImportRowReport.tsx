@@ -5,7 +5,7 @@ export function ImportRowReport({ rows, limit = 50 }: { rows: readonly CsvRowRep
   const flagged = rows.filter((r) => r.status !== "ok");
   if (flagged.length === 0) return rows.length ? <p className="text-label text-moss-700">Every row reads well.</p> : null;
   return (
-    <div className="max-h-64 overflow-auto rounded-lg border border-rime-200 bg-white">
+    <div className="max-h-64 overflow-auto rounded-lg border border-rime-200 bg-paper">
       <table className="w-full text-left text-label">
         <caption className="sr-only">Rows with a problem</caption>
         <thead className="sticky top-0 bg-rime-100">

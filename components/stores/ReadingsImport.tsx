@@ -139,7 +139,7 @@ export function ReadingsImport({ storeId, farmUnit, timeZone }: { storeId: strin
           id="readings-file"
           type="file"
           accept=".csv,text/csv,text/plain"
-          className="block w-full min-h-tap rounded-xl border-2 border-dashed border-rime-300 bg-white p-3 text-label file:mr-3 file:min-h-tap file:rounded-lg file:border-0 file:bg-glacier-700 file:px-4 file:font-semibold file:text-white"
+          className="block w-full min-h-tap rounded-xl border-2 border-dashed border-rime-300 bg-paper p-3 text-label file:mr-3 file:min-h-tap file:rounded-lg file:border-0 file:bg-glacier-700 file:px-4 file:font-semibold file:text-white"
           onChange={(e) => void pick(e.target.files?.[0] ?? null)}
         />
       </Field>

@@ -40,7 +40,7 @@ export function StoreDelete({ store, bagsOfStore, readingCount }: { store: Store
             <li key={b.id}>
               <Link
                 href={`/bags/view?id=${encodeURIComponent(b.id)}`}
-                className="flex min-h-tap items-center justify-center rounded-xl border-2 border-glacier-700 bg-white px-2 font-mono font-bold tracking-wider text-glacier-800"
+                className="flex min-h-tap items-center justify-center rounded-xl border-2 border-glacier-700 bg-paper px-2 font-mono font-bold tracking-wider text-glacier-800"
               >
                 <span className="sr-only">Open bag </span>
                 {formatBagCode(b.code)}

@@ -77,7 +77,7 @@ export function StoresScreen() {
           const outside = latest ? isOutsideStoreBand(store.kind, latest.temperature_c) : false;
           return (
             <li key={store.id}>
-              <Link href={`/stores/view?id=${store.id}`} className="block rounded-card border border-rime-200 bg-white p-4 shadow-sm hover:border-glacier-500">
+              <Link href={`/stores/view?id=${store.id}`} className="block rounded-card border border-rime-200 bg-paper p-4 shadow-sm hover:border-glacier-500">
                 <div className="flex items-start gap-3">
                   <StoreGlyph kind={store.kind} />
                   <div className="min-w-0 flex-1">

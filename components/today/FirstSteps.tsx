@@ -19,7 +19,7 @@ export function FirstSteps({ steps }: { steps: FirstStep[] }) {
       ) : null}
       <ol className="space-y-2">
         {steps.map((s, i) => (
-          <li key={s.key} className={`rounded-card border-2 bg-white p-3 ${s.next ? "border-glacier-600" : "border-rime-200"}`} data-done={s.done}>
+          <li key={s.key} className={`rounded-card border-2 bg-paper p-3 ${s.next ? "border-glacier-600" : "border-rime-200"}`} data-done={s.done}>
             <p className="flex items-baseline gap-2 font-semibold text-ink">
               <span aria-hidden="true" className={`inline-flex h-7 w-7 shrink-0 items-center justify-center rounded-full text-label ${s.done ? "bg-moss-600 text-white" : "border-2 border-glacier-600 text-glacier-700"}`}>
                 {s.done ? "✓" : i + 1}

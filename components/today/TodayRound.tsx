@@ -154,7 +154,7 @@ function RoundRow({ item }: { item: RoundItem }) {
     <li>
       <Link
         href={`/check?bag=${encodeURIComponent(item.bag.id)}&from=today`}
-        className={`block min-h-tap rounded-card border-2 bg-white p-3 shadow-sm hover:bg-rime-50 ${look.frame}`}
+        className={`block min-h-tap rounded-card border-2 bg-paper p-3 shadow-sm hover:bg-rime-50 ${look.frame}`}
         data-testid="round-bag"
         data-tone={choice.tone}
       >
@@ -190,7 +190,7 @@ function SowGroup({ items }: { items: SowItem<PulledBagRow>[] }) {
             <li key={item.bag.id}>
               <Link
                 href={`/sowing?bag=${encodeURIComponent(item.bag.id)}`}
-                className={`block min-h-tap rounded-card border-2 bg-white p-3 shadow-sm hover:bg-rime-50 ${urgent ? "border-ember-600" : "border-rime-200"}`}
+                className={`block min-h-tap rounded-card border-2 bg-paper p-3 shadow-sm hover:bg-rime-50 ${urgent ? "border-ember-600" : "border-rime-200"}`}
                 data-testid="sow-bag"
               >
                 <span className="flex items-center justify-between gap-2">

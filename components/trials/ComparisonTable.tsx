@@ -72,7 +72,7 @@ export function ComparisonTable({ table }: { table: TrialTable }) {
       {/* Phones: one card per arm, each value under its column's name. */}
       <ul className="space-y-2 sm:hidden" aria-label="Germination by arm">
         {t.getRowModel().rows.map((r) => (
-          <li key={r.id} className="rounded-xl border border-rime-200 bg-white p-3">
+          <li key={r.id} className="rounded-xl border border-rime-200 bg-paper p-3">
             <dl className="space-y-1 text-label">
               {r.getVisibleCells().map((c) => (
                 <div key={c.id} className={c.column.id === "arm" ? "text-body" : "flex justify-between gap-3"}>
@@ -100,7 +100,7 @@ export function ComparisonTable({ table }: { table: TrialTable }) {
           </thead>
           <tbody>
             {t.getRowModel().rows.map((r) => (
-              <tr key={r.id} className="border-t border-rime-100 bg-white">
+              <tr key={r.id} className="border-t border-rime-100 bg-paper">
                 {r.getVisibleCells().map((c) => (
                   <td key={c.id} className="px-2 py-2 align-top">
                     {flexRender(c.column.columnDef.cell, c.getContext())}

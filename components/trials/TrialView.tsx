@@ -232,7 +232,7 @@ export function TrialView() {
                   onChange={(e) =>
                     void updateBag(b.id, { trial_arm_id: e.target.value || null }).catch((err) => setMessage({ ok: false, text: describeSaveError(err) }))
                   }
-                  className="min-h-tap max-w-[55%] rounded-xl border-2 border-rime-300 bg-white px-2 text-label"
+                  className="min-h-tap max-w-[55%] rounded-xl border-2 border-rime-300 bg-paper px-2 text-label"
                 >
                   <option value="">Not in this trial</option>
                   {[...arms].sort((a, c) => a.position - c.position).map((a) => (

@@ -57,7 +57,7 @@ export function TrialsScreen() {
           const first = table.comparisons[0]?.verdict;
           return (
             <li key={t.id}>
-              <Link href={`/trials/view?id=${t.id}`} className="block rounded-card border border-rime-200 bg-white p-4 shadow-sm hover:border-glacier-500">
+              <Link href={`/trials/view?id=${t.id}`} className="block rounded-card border border-rime-200 bg-paper p-4 shadow-sm hover:border-glacier-500">
                 <p className="text-body font-bold text-ink">{t.name}</p>
                 <p className="text-label text-ink-soft">
                   {lot?.species ?? "No lot"} · {arms.length} arms: {arms.map((a) => a.label).join(" · ")}

@@ -5,11 +5,11 @@ type Size = "md" | "lg" | "xl";
 
 const tones: Record<Tone, string> = {
   primary: "bg-glacier-700 text-white hover:bg-glacier-800 disabled:bg-rime-300",
-  secondary: "border-2 border-glacier-700 bg-white text-glacier-700 hover:bg-rime-100 disabled:border-rime-300 disabled:text-rime-300",
+  secondary: "border-2 border-glacier-700 bg-paper text-glacier-700 hover:bg-rime-100 disabled:border-rime-300 disabled:text-rime-300",
   quiet: "bg-rime-100 text-ink hover:bg-rime-200 disabled:text-rime-300",
   danger: "bg-ember-600 text-white hover:bg-ember-700 disabled:bg-rime-300",
   // A destructive step offered beside others: looks destructive without shouting.
-  "danger-outline": "border-2 border-ember-600 bg-white text-ember-700 hover:bg-ember-100 disabled:border-rime-300 disabled:text-rime-300",
+  "danger-outline": "border-2 border-ember-600 bg-paper text-ember-700 hover:bg-ember-100 disabled:border-rime-300 disabled:text-rime-300",
   good: "bg-moss-600 text-white hover:bg-moss-700 disabled:bg-rime-300",
 };
 const sizes: Record<Size, string> = {

@@ -1,7 +1,7 @@
 import type { HTMLAttributes } from "react";
 
 export function Card({ className = "", ...rest }: HTMLAttributes<HTMLDivElement>) {
-  return <div className={`rounded-card border border-rime-200 bg-white p-4 shadow-sm ${className}`} {...rest} />;
+  return <div className={`tag relative rounded-card border border-rime-300 bg-paper p-4 ${className}`} {...rest} />;
 }
 
 export function PageHeader({ title, subtitle, action }: { title: string; subtitle?: string; action?: React.ReactNode }) {

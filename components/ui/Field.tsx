@@ -1,7 +1,7 @@
 import { forwardRef, type InputHTMLAttributes, type SelectHTMLAttributes, type TextareaHTMLAttributes } from "react";
 
 const control =
-  "block w-full min-h-tap rounded-xl border-2 border-rime-300 bg-white px-3 py-2 text-body text-ink placeholder:text-pencil focus:border-glacier-500 aria-[invalid=true]:border-ember-600";
+  "block w-full min-h-tap rounded-xl border-2 border-rime-300 bg-paper px-3 py-2 text-body text-ink placeholder:text-pencil focus:border-glacier-500 aria-[invalid=true]:border-ember-600";
 
 /** A labelled control with its error in words, wired for screen readers. */
 export function Field({ label, htmlFor, error, hint, children }: { label: string; htmlFor: string; error?: string; hint?: string; children: React.ReactNode }) {

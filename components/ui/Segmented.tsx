@@ -28,7 +28,7 @@ export function Segmented<T extends string>({
             <label
               key={o.value}
               className={`flex min-h-14 cursor-pointer items-center justify-center rounded-card border-2 px-2 py-2 text-center text-label font-semibold leading-tight has-[:focus-visible]:outline has-[:focus-visible]:outline-3 has-[:focus-visible]:outline-glacier-500 ${
-                checked ? chosen[tone?.(o.value) ?? "neutral"] : "border-rime-300 bg-white text-ink"
+                checked ? chosen[tone?.(o.value) ?? "neutral"] : "border-rime-300 bg-paper text-ink"
               }`}
             >
               <input type="radio" className="sr-only" name={name} value={o.value} checked={checked} onChange={() => onChange(o.value)} />

@@ -50,11 +50,11 @@ export default async function MailboxPage() {
           another browser profile to join as that person.
         </p>
       </header>
-      {mail.length === 0 ? <p className="rounded-card border border-rime-200 bg-white p-4 text-ink-soft">No mail yet.</p> : null}
+      {mail.length === 0 ? <p className="rounded-card border border-rime-200 bg-paper p-4 text-ink-soft">No mail yet.</p> : null}
       <ol className="space-y-3">
         {mail.map((m) => (
           <li key={m.id}>
-            <article className="space-y-2 rounded-card border border-rime-200 bg-white p-4 shadow-sm">
+            <article className="space-y-2 rounded-card border border-rime-200 bg-paper p-4 shadow-sm">
               <h2 className="font-semibold text-ink">{m.subject}</h2>
               <p className="text-label text-ink-soft">
                 To {m.to.join(", ")} · from {m.from} · {when.format(new Date(m.receivedAt))} UTC
