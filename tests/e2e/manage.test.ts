@@ -117,7 +117,7 @@ describe("managing stores and trials on a phone", () => {
     await signIn(p, helper);
     await p.goto("/stores");
     await p.getByRole("link", { name: /Barn fridge/ }).click({ timeout: 60_000 });
-    await p.getByText("Bags in this store").waitFor();
+    await p.getByRole("heading", { name: "Bags in this store" }).waitFor();
     expect(await p.getByRole("button", { name: "Delete this store…" }).count()).toBe(0);
     expect(await p.getByRole("button", { name: "Edit store" }).count()).toBe(0);
     const [trial] = q<{ id: string }>("SELECT id FROM trials");

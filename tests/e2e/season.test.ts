@@ -158,7 +158,7 @@ describe("season screens on a phone", () => {
     await signIn(p, viewer);
     await p.goto("/stores");
     await p.getByRole("link", { name: /Barn fridge/ }).click({ timeout: 60_000 });
-    await p.getByText("Bags in this store").waitFor();
+    await p.getByRole("heading", { name: "Bags in this store" }).waitFor();
     expect(await p.getByRole("button", { name: "Import logger CSV" }).count()).toBe(0);
     expect(await p.getByRole("button", { name: "Add a reading" }).count()).toBe(0);
     const [trial] = q<{ id: string }>("SELECT id FROM trials");
