@@ -100,10 +100,8 @@ export function TodayRound() {
       {data && data.round.counts.due + data.sowQueue.length > 0 ? (
         <ul className="flex flex-wrap gap-2" aria-label="Due today by reason">
           {[...summarizeSowQueue(data.sowQueue), ...summarizeRound(data.round)].map((s) => (
-            <li
-              key={s.kind}
-              className={`rounded-full px-3 py-1 text-label font-semibold ${s.urgent ? "bg-ember-100 text-ember-700" : "bg-rime-100 text-glacier-800"}`}
-            >
+            <li key={s.kind} className={`rounded-md border px-2.5 py-1 text-label font-semibold ${chipLook[s.tone].frame}`} data-tone={s.tone}>
+              {chipLook[s.tone].mark ? <span aria-hidden="true">{chipLook[s.tone].mark}</span> : null}
               {s.count} · {s.label}
             </li>
           ))}
@@ -145,6 +143,14 @@ const cardLook: Record<SheetTone, { frame: string; mark: string; text: string }>
   act: { frame: "border-wheat-600 border-l-8", mark: "▲ ", text: "text-wheat-700" },
   trouble: { frame: "border-ember-600 border-l-8", mark: "✕ ", text: "text-ember-700" },
   closed: { frame: "border-rime-200", mark: "", text: "text-ink-soft" },
+};
+
+// The summary chips in the same four tones as the cards, each with its mark so they read apart in greyscale.
+const chipLook: Record<Exclude<SheetTone, "closed">, { frame: string; mark: string }> = {
+  routine: { frame: "border-rime-300 bg-rime-100 text-glacier-800", mark: "" },
+  decide: { frame: "border-glacier-600 bg-paper text-glacier-800", mark: "◐ " },
+  act: { frame: "border-wheat-600 bg-wheat-100 text-wheat-700", mark: "▲ " },
+  trouble: { frame: "border-ember-600 bg-ember-100 text-ember-700", mark: "✕ " },
 };
 
 function RoundRow({ item }: { item: RoundItem }) {

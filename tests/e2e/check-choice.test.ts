@@ -215,4 +215,43 @@ describe("the check sheet's first action, and the taps it takes", () => {
     expect(errors.filter((e) => !/status of 404/.test(e))).toEqual([]);
     await context.close();
   }, 300_000);
+
+  it("a caution read by a person on a bag folds to a chip for them (kept across reloads), and stays in full for someone else", async () => {
+    // A live bag in the store that holds food: its sheet carries the fridge-and-food caution.
+    const [bag] = queryServer<BagId>(
+      app.databaseFile,
+      `SELECT b.id FROM bags b JOIN stores s ON s.id = b.store_id WHERE s.holds_food = 1 AND b.start_date IS NOT NULL AND b.pulled_on IS NULL AND b.discarded_on IS NULL AND b.deleted_at IS NULL LIMIT 1`,
+    );
+    expect(bag).toBeDefined();
+    const context = await phoneContext(browser!, app.origin);
+    const page = await context.newPage();
+    await signIn(page, grower);
+    await page.getByTestId("round-bag").first().waitFor({ timeout: 60_000 });
+    await openSheet(page, bag!.id);
+    const full = page.getByTestId("cautions-full");
+    await full.getByRole("note").filter({ hasText: "This fridge and food" }).waitFor();
+    await full.getByRole("button", { name: /I have read/ }).click();
+    const folded = page.getByTestId("cautions-folded");
+    await folded.waitFor();
+    expect(await page.getByTestId("cautions-full").count()).toBe(0);
+    // The words are one tap away.
+    const chip = folded.locator("details").filter({ hasText: "This fridge and food" });
+    await expect(chip.getByText(/Keep seed bags sealed/).isVisible()).resolves.toBe(false);
+    await chip.locator("summary").click();
+    await chip.getByText(/Keep seed bags sealed/).waitFor();
+    await page.reload();
+    await page.getByTestId("choice").waitFor({ timeout: 30_000 });
+    await page.getByTestId("cautions-folded").waitFor();
+    await shoot(page, "check-choice-cautions-folded");
+    await context.close();
+
+    // Another person on another phone has not read them.
+    const other = await phoneContext(browser!, app.origin);
+    const p2 = await other.newPage();
+    await signIn(p2, { email: "wren@bramblewick.example", password: "owner-frost-demo" });
+    await p2.getByTestId("round-bag").first().waitFor({ timeout: 60_000 });
+    await openSheet(p2, bag!.id);
+    await p2.getByTestId("cautions-full").waitFor();
+    await other.close();
+  }, 180_000);
 });

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { buildRoundFromRows, cadenceFor, dayOfTimestamp, summarizeRound, type LastCheckRow } from "@/lib/domain/rows/round-input";
+import { buildRoundFromRows, cadenceFor, dayOfTimestamp, roundChipTones, summarizeRound, urgentChipKinds, type LastCheckRow } from "@/lib/domain/rows/round-input";
 import { starterProtocols } from "@/lib/domain/starter-protocols";
 import type { Bag } from "@/lib/schemas/bag";
 import type { Lot } from "@/lib/schemas/lot";
@@ -73,13 +73,19 @@ describe("today's round from the phone store", () => {
     expect(tomorrow.items.find((i) => i.bag.code === "ELDER")?.next).toMatchObject({ reason: "move_to_next_phase", on: "2026-01-21" });
   });
 
-  it("summarizes counts for the chips, a follow-up after mould apart and urgent", () => {
+  it("summarizes counts for the chips, a follow-up after mould apart and urgent; trouble, a decision and routine each in its own tone", () => {
     expect(summarizeRound(round)).toEqual([
-      { kind: "mould_follow_up", label: "Mould spots", count: 1, urgent: true },
-      { kind: "overdue", label: "Past latest pull", count: 1, urgent: true },
-      { kind: "window_daily", label: "Window open", count: 1, urgent: false },
-      { kind: "weekly", label: "Routine", count: 1, urgent: false },
+      { kind: "mould_follow_up", label: "Mould spots", count: 1, urgent: true, tone: "trouble" },
+      { kind: "overdue", label: "Past latest pull", count: 1, urgent: true, tone: "trouble" },
+      { kind: "window_daily", label: "Window open", count: 1, urgent: false, tone: "decide" },
+      { kind: "weekly", label: "Routine", count: 1, urgent: false, tone: "routine" },
     ]);
+  });
+
+  it("a window opening is a decision, not trouble: it does not count as needing action first", () => {
+    expect(roundChipTones.window_opens).toBe("decide");
+    expect(urgentChipKinds.has("window_opens")).toBe(false);
+    expect([...urgentChipKinds].sort()).toEqual(["discard_now", "follow_up", "mould_follow_up", "move_to_next_phase", "overdue", "pull_now"]);
   });
 
   it("uses the farm's weekly rhythm", () => {

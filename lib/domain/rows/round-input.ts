@@ -5,6 +5,7 @@ import { defaultCheckCadence, type CheckCadence, type CheckFindings, type NextCh
 import { buildSowQueue, type PulledBag, type SowItem, type SowRule } from "@/lib/domain/sow-queue";
 import type { Check } from "@/lib/schemas/check";
 import type { StoreKind } from "@/lib/schemas/vocabulary";
+import type { SheetTone } from "@/lib/domain/check-choice";
 import { findRootsWatchDay, type FarmWindow } from "@/lib/domain/farm-history";
 
 // From the phone store's rows to lib/domain's round: no numbers are worked out here, only the shapes change.
@@ -95,20 +96,37 @@ export const roundChipLabels: Record<RoundChipKind, string> = {
   weekly: "Routine",
 };
 
-/** Chips that ask for action before the routine checks. */
-export const urgentChipKinds: ReadonlySet<RoundChipKind> = new Set(["discard_now", "mould_follow_up", "pull_now", "overdue", "window_opens"]);
+/** Each chip's tone, the same four looks as the cards and the check sheet: trouble (mould, past the latest pull),
+ *  work to do now (roots showing, wet bags), a decision (a window opening or open), routine. */
+export const roundChipTones: Record<RoundChipKind, Exclude<SheetTone, "closed">> = {
+  discard_now: "trouble",
+  mould_follow_up: "trouble",
+  overdue: "trouble",
+  pull_now: "act",
+  follow_up: "act",
+  move_to_next_phase: "act",
+  window_opens: "decide",
+  window_daily: "decide",
+  roots_watch: "routine",
+  weekly: "routine",
+};
+
+/** Chips that ask for action before the routine checks (trouble, and work to do now). */
+export const urgentChipKinds: ReadonlySet<RoundChipKind> = new Set(
+  (Object.keys(roundChipTones) as RoundChipKind[]).filter((k) => roundChipTones[k] === "trouble" || roundChipTones[k] === "act"),
+);
 
 export function chipKindOf(item: TodaysRound["items"][number]): RoundChipKind {
   const mould = item.bag.lastCheck?.mould;
   return item.next.reason === "follow_up" && mould && mould !== "clean" ? "mould_follow_up" : item.next.reason;
 }
 
-export function summarizeRound(round: TodaysRound): { kind: RoundChipKind; label: string; count: number; urgent: boolean }[] {
+export function summarizeRound(round: TodaysRound): { kind: RoundChipKind; label: string; count: number; urgent: boolean; tone: Exclude<SheetTone, "closed"> }[] {
   const counts = new Map<RoundChipKind, number>();
   for (const item of round.items) counts.set(chipKindOf(item), (counts.get(chipKindOf(item)) ?? 0) + 1);
   return (Object.keys(roundChipLabels) as RoundChipKind[])
     .filter((k) => counts.has(k))
-    .map((kind) => ({ kind, label: roundChipLabels[kind], count: counts.get(kind)!, urgent: urgentChipKinds.has(kind) }));
+    .map((kind) => ({ kind, label: roundChipLabels[kind], count: counts.get(kind)!, urgent: urgentChipKinds.has(kind), tone: roundChipTones[kind] }));
 }
 
 /** Bags in a store group, for the group's count. */
@@ -158,10 +176,11 @@ export function isWaitingToSow(b: Pick<BagRowSources["bags"][number], "deleted_a
 }
 
 /** The "To sow" chip at the top of Today: urgent when a bag is late or has roots showing. */
-export function summarizeSowQueue(queue: readonly SowItem[]): { kind: string; label: string; count: number; urgent: boolean }[] {
+export function summarizeSowQueue(queue: readonly SowItem[]): { kind: string; label: string; count: number; urgent: boolean; tone: Exclude<SheetTone, "closed"> }[] {
   if (queue.length === 0) return [];
   const late = queue.filter((i) => i.isLate).length;
-  return [{ kind: "to_sow", label: late ? `To sow (${late} late)` : "To sow", count: queue.length, urgent: queue.some((i) => i.isLate || i.sprouted) }];
+  const urgent = queue.some((i) => i.isLate || i.sprouted);
+  return [{ kind: "to_sow", label: late ? `To sow (${late} late)` : "To sow", count: queue.length, urgent, tone: late ? "trouble" : urgent ? "act" : "routine" }];
 }
 
 /** Today's summary sentence: the checks due and the pulled bags waiting to be sown. */

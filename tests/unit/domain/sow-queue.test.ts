@@ -87,8 +87,8 @@ describe("the To sow group", () => {
     expect(describeRoundCount(3, 1, queue)).toBe("3 bags to check, 1 needing action first; 2 pulled bags to sow.");
     const late = buildSowQueue([bag("LATE001", "2024-03-01")], today);
     expect(describeRoundCount(1, 0, late)).toBe("1 bag to check; 1 pulled bag to sow (1 late).");
-    expect(summarizeSowQueue(late)).toEqual([{ kind: "to_sow", label: "To sow (1 late)", count: 1, urgent: true }]);
-    expect(summarizeSowQueue(queue)).toEqual([{ kind: "to_sow", label: "To sow", count: 2, urgent: false }]);
+    expect(summarizeSowQueue(late)).toEqual([{ kind: "to_sow", label: "To sow (1 late)", count: 1, urgent: true, tone: "trouble" }]);
+    expect(summarizeSowQueue(queue)).toEqual([{ kind: "to_sow", label: "To sow", count: 2, urgent: false, tone: "routine" }]);
   });
 });
 
