@@ -53,7 +53,7 @@ export function AppShell({ children }: { children: React.ReactNode }) {
         <div className="mx-auto flex max-w-xl items-center justify-between gap-3 px-4 py-2 lg:max-w-none">
           <Link href="/today" className="flex min-h-tap min-w-0 items-center gap-2">
             <RimeMark className="h-8 w-8 shrink-0" />
-            <span className="truncate font-semibold text-glacier-800">{identity?.farm.name ?? "Rimebook"}</span>
+            <span className="line-clamp-2 text-label font-semibold leading-tight text-glacier-800 sm:text-body">{identity?.farm.name ?? "Rimebook"}</span>
             <span className="sr-only">: today&apos;s round</span>
           </Link>
           <SyncPill />

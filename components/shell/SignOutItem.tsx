@@ -8,7 +8,7 @@ import { unsentWords } from "./sync-words";
 
 // "Sign out of this phone", at the end of the Farm menu and of the desktop side column. Work still only on
 // this phone is named before anything is deleted.
-export function SignOutItem() {
+export function SignOutItem({ className = "px-4 py-3" }: { className?: string }) {
   const router = useRouter();
   const [warning, setWarning] = useState<WaitingTally | null>(null);
   const [busy, setBusy] = useState(false);
@@ -20,7 +20,7 @@ export function SignOutItem() {
     else setWarning(result.waiting);
   };
   return (
-    <li className="px-4 py-3">
+    <li className={className}>
       {warning ? (
         <div role="alert" className="space-y-2">
           <p className="text-label">

@@ -21,7 +21,7 @@ export function StoreDelete({ store, bagsOfStore, readingCount }: { store: Store
 
   if (!del.open) {
     return (
-      <Button tone="quiet" className="w-full" onClick={del.show}>
+      <Button tone="danger-outline" className="w-full" onClick={del.show}>
         Delete this store…
       </Button>
     );

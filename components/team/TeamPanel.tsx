@@ -125,7 +125,7 @@ export function TeamPanel() {
                           </Button>
                         </>
                       ) : (
-                        <Button tone="quiet" onClick={() => setConfirmRemove(m.membershipId)} disabled={busy !== null}>
+                        <Button tone="danger-outline" onClick={() => setConfirmRemove(m.membershipId)} disabled={busy !== null}>
                           {you ? "Leave" : "Remove"}
                         </Button>
                       )}
@@ -171,7 +171,7 @@ export function TeamPanel() {
                     <Button tone="secondary" onClick={() => resend(i)} disabled={busy !== null}>
                       {busy === `resend:${i.id}` ? "Sending…" : "Send again"}
                     </Button>
-                    <Button tone="quiet" onClick={() => revoke(i)} disabled={busy !== null}>
+                    <Button tone="danger-outline" onClick={() => revoke(i)} disabled={busy !== null}>
                       Withdraw
                     </Button>
                   </div>

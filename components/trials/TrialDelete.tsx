@@ -15,7 +15,7 @@ export function TrialDelete({ trial, armLabels, bagsInArms, hasOwnProtocol }: { 
 
   if (!del.open) {
     return (
-      <Button tone="quiet" className="w-full" onClick={del.show}>
+      <Button tone="danger-outline" className="w-full" onClick={del.show}>
         Delete this trial…
       </Button>
     );
