@@ -131,7 +131,7 @@ export function PlanScreen() {
       {rows === undefined ? <p className="text-ink-soft">Opening the plan on this phone…</p> : null}
       {countdown ? (
         <Card>
-          <h2 className="mb-1 text-body font-bold text-glacier-800">Countdown to the frost</h2>
+          <h2 className="mb-1 text-body font-bold text-glacier-800">{countdown.anchorKind === "frost" ? "Countdown to the frost" : "Countdown to sowing"}</h2>
           <SeasonTimeline countdown={countdown} today={today} />
         </Card>
       ) : null}

@@ -21,13 +21,16 @@ const phaseColour: Record<PhaseKind, { text: string; bg: string }> = {
 
 /** Tone and glyph per lane state, after DEVELOPERS.md "Tones of work": trouble ember ✕, due wheat ▲, in the cold ❄. */
 const statusLook: Record<LaneStatus, { glyph: string; text: string; edge: string }> = {
-  late: { glyph: "✕", text: "text-ember-700", edge: "border-ember-700 border-l-[6px]" },
-  due: { glyph: "▲", text: "text-wheat-700", edge: "border-wheat-600 border-l-[6px]" },
-  waiting: { glyph: "○", text: "text-ink", edge: "border-soil-600/40 border-l-2 border-dashed" },
-  in_bag: { glyph: "❄", text: "text-glacier-800", edge: "border-glacier-600 border-l-[6px]" },
-  done: { glyph: "✓", text: "text-moss-700", edge: "border-moss-600 border-l-[6px]" },
-  no_cold: { glyph: "–", text: "text-ink-soft", edge: "border-rime-300 border-l-2" },
+  late: { glyph: "✕", text: "text-ember-700", edge: "w-1.5 bg-ember-700" },
+  due: { glyph: "▲", text: "text-wheat-700", edge: "w-1.5 bg-wheat-600" },
+  waiting: { glyph: "○", text: "text-ink", edge: "border-l-2 border-dashed border-soil-600/50" },
+  in_bag: { glyph: "❄", text: "text-glacier-800", edge: "w-1.5 bg-glacier-600" },
+  done: { glyph: "✓", text: "text-moss-700", edge: "w-1.5 bg-moss-600" },
+  no_cold: { glyph: "–", text: "text-ink-soft", edge: "border-l-2 border-rime-300" },
 };
+
+/** Tag and scale share one box model so the gauges line up under the ruler: words left, gauge right on a desk. */
+const ROW = "pl-7 pr-3 lg:grid lg:grid-cols-[minmax(18rem,26rem)_1fr] lg:gap-x-6";
 
 export function SeasonTimeline({ countdown, today }: { countdown: SeasonCountdown; today: string }) {
   const at = (daysBefore: number) => placeOnScale(countdown, daysBefore);
@@ -43,7 +46,7 @@ export function SeasonTimeline({ countdown, today }: { countdown: SeasonCountdow
       <p id="season-fixed-point" className="text-label text-ink-soft">
         {fixedPoint}
       </p>
-      <div className="lg:grid lg:grid-cols-[minmax(18rem,24rem)_1fr] lg:gap-x-6" aria-hidden="true">
+      <div className={ROW} aria-hidden="true">
         <p className="hidden self-end text-label font-semibold text-ink-soft lg:block">Species</p>
         <FrostRule countdown={countdown} at={at} />
       </div>
@@ -84,20 +87,25 @@ export function SeasonTimeline({ countdown, today }: { countdown: SeasonCountdow
 
 /** The shared scale: whole weeks before the anchor, the frost (or sowing) at its right-hand end, "now" pencilled on. */
 function FrostRule({ countdown, at }: { countdown: SeasonCountdown; at: (d: number) => number }) {
-  const last = countdown.ticks.length - 1;
   return (
     <div>
-      <p className="text-label text-ink-soft">weeks before {countdown.anchorKind === "frost" ? "last frost" : "sowing"} →</p>
+      <p className="flex justify-between text-label text-ink-soft">
+        <span>weeks before {countdown.anchorKind === "frost" ? "last frost" : "sowing"} →</span>
+        <span className="font-semibold text-glacier-800">{countdown.anchorKind === "frost" ? "❄ last frost" : "sowing"}</span>
+      </p>
       <div className="relative h-6 border-b-2 border-ink-soft/60 text-label font-semibold text-ink">
-        {countdown.ticks.map((t, i) => (
-          <span
-            key={t.before}
-            className={`absolute bottom-0.5 whitespace-nowrap ${i === 0 ? "" : i === last && countdown.after === 0 ? "-translate-x-full" : "-translate-x-1/2"} ${t.before === 0 ? "text-glacier-800" : ""}`}
-            style={{ left: `${at(t.before)}%` }}
-          >
-            {t.before === 0 && countdown.anchorKind === "frost" ? "❄ frost" : t.label}
-          </span>
-        ))}
+        {countdown.ticks.map((t, i) =>
+          t.before <= 0 ? (
+            <span key={t.before} className={`absolute bottom-0.5 text-glacier-800 ${countdown.after === 0 ? "-translate-x-full" : "-translate-x-1/2"}`} style={{ left: `${at(0)}%` }}>
+              {countdown.anchorKind === "frost" ? "❄" : <SowMark className="inline h-3.5 w-4" />}
+            </span>
+          ) : (
+            <span key={t.before} className={`absolute bottom-0.5 whitespace-nowrap ${i === 0 ? "" : "-translate-x-1/2"}`} style={{ left: `${at(t.before)}%` }}>
+              {t.before / 7}
+              <span className="hidden lg:inline"> wk</span>
+            </span>
+          ),
+        )}
         {countdown.ticks.map((t) => (
           <span key={`tick-${t.before}`} className="absolute -bottom-1.5 h-2 border-l-2 border-ink-soft/60" style={{ left: `${at(t.before)}%` }} />
         ))}
@@ -110,11 +118,12 @@ function LaneTag({ lane, at }: { lane: SeasonLane; at: (d: number) => number }) 
   const look = statusLook[lane.status];
   return (
     <div
-      className={`relative rounded-r-xl bg-soil-100/60 py-2 pl-7 pr-3 lg:grid lg:grid-cols-[minmax(18rem,24rem)_1fr] lg:items-center lg:gap-x-6 ${look.edge}`}
+      className={`relative rounded-r-xl bg-soil-100/60 py-2 lg:items-center ${ROW}`}
       // A kraft tag: chamfered corners at the string end and a punched hole.
       style={{ clipPath: "polygon(12px 0, 100% 0, 100% 100%, 12px 100%, 0 calc(100% - 12px), 0 12px)" }}
     >
-      <span className="absolute left-2.5 top-3 h-2.5 w-2.5 rounded-full border-2 border-soil-600/60 bg-rime-50" aria-hidden="true" />
+      <span className={`absolute inset-y-0 left-0 ${look.edge}`} aria-hidden="true" />
+      <span className="absolute left-3 top-3 h-2.5 w-2.5 rounded-full border-2 border-soil-600/60 bg-rime-50" aria-hidden="true" />
       <div className="min-w-0">
         <p className="font-semibold text-ink">{lane.label}</p>
         <p className={`text-label font-semibold ${look.text}`}>
@@ -123,7 +132,7 @@ function LaneTag({ lane, at }: { lane: SeasonLane; at: (d: number) => number }) 
         </p>
         <p className="text-label text-ink-soft">
           {lane.coldLine}
-          {lane.startByBefore && lane.status !== "done" ? ` · bag in ${lane.startByBefore}` : ""}
+          {lane.startByBefore && lane.status !== "done" ? ` · goes in ${lane.startByBefore}` : ""}
         </p>
         <p className="sr-only">{lane.spoken}</p>
       </div>
