@@ -132,7 +132,7 @@ function LaneTag({ lane, at }: { lane: SeasonLane; at: (d: number) => number }) 
         </p>
         <p className="text-label text-ink-soft">
           {lane.coldLine}
-          {lane.startByBefore && lane.status !== "done" ? ` · goes in ${lane.startByBefore}` : ""}
+          {lane.startByBefore && lane.status !== "done" && lane.status !== "in_bag" ? ` · goes in ${lane.startByBefore}` : ""}
         </p>
         <p className="sr-only">{lane.spoken}</p>
       </div>

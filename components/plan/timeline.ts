@@ -114,16 +114,20 @@ const overlap = (from: number, to: number, a: number, b: number) => Math.max(0, 
 export function countDownLane(input: SeasonLaneInput, anchor: IsoDay, anchorKind: "frost" | "sowing", today: IsoDay): SeasonLane {
   const before = (d: IsoDay) => countDaysBetween(d, anchor);
   const words = (d: IsoDay) => formatDayWithWeekday(d, today);
+  const first = input.phases[0] ?? null;
+  const startBy = first?.startBy ?? null;
+  const started = input.bag?.startedOn && input.bag.startedOn <= today && startBy ? input.bag.startedOn : null;
+  // A started bag is drawn where it really is: its phases run from the day it went in (late bags end past sowing).
+  const shift = started ? countDaysBetween(startBy!, started) : 0;
   const segments: LaneSegment[] = input.phases.map((p, i) => {
     const end = i + 1 < input.phases.length ? input.phases[i + 1].startBy : input.sowOn;
-    return { kind: p.kind, cold: COLD_KINDS.has(p.kind), from: p.startBy, days: countDaysBetween(p.startBy, end), startsBefore: before(p.startBy), endsBefore: before(end) };
+    const from = addDaysToIsoDay(p.startBy, shift);
+    const to = addDaysToIsoDay(end, shift);
+    return { kind: p.kind, cold: COLD_KINDS.has(p.kind), from, days: countDaysBetween(p.startBy, end), startsBefore: before(from), endsBefore: before(to) };
   });
   const coldNeeded = segments.filter((s) => s.cold).reduce((a, s) => a + s.days, 0);
   const totalDays = segments.reduce((a, s) => a + s.days, 0);
-  const first = input.phases[0] ?? null;
-  const startBy = first?.startBy ?? null;
-  const leadInBefore = first?.startFrom && first.startFrom < first.startBy ? before(first.startFrom) : null;
-  const started = input.bag?.startedOn && input.bag.startedOn <= today ? input.bag.startedOn : null;
+  const leadInBefore = !started && first?.startFrom && first.startFrom < first.startBy ? before(first.startFrom) : null;
 
   // Days the bag has been through its phases (in the planned order and lengths) by today, or until it came out.
   let doneDays = 0;
@@ -151,7 +155,8 @@ export function countDownLane(input: SeasonLaneInput, anchor: IsoDay, anchorKind
   } else if (started) {
     status = "in_bag";
     const late = countDaysBetween(startBy!, started);
-    headline = `${segments[0].cold ? "in the cold" : "in the bag"} since ${words(started)}${late > 0 ? ` (${late} day${late === 1 ? "" : "s"} after the start-by day)` : ""}`;
+    const ready = addDaysToIsoDay(started, totalDays);
+    headline = `${segments[0].cold ? "in the cold" : "in the bag"} since ${words(started)}${late > 0 ? ` (${late} day${late === 1 ? "" : "s"} after the start-by day)` : ""} — ready ${ready <= today ? "now" : words(ready)}`;
   } else {
     const away = countDaysBetween(today, startBy!);
     if (away < 0) {

@@ -85,12 +85,12 @@ describe("countDownLane: when the bag goes in and the cold still to come, in wor
       // Sown at frost, Sat 8 May; cold from Sun 7 Feb (8 May − 90 days); warm from Mon 9 Nov 2026 (− 90 more).
       // Mon 9 Nov → Mon 1 Mar is 112 days: 90 warm + 22 cold.
       input: lane(elder, 0, { startedOn: day("Mon 9 Nov 2026"), outOn: null }), today: "Mon 1 Mar 2027",
-      want: { status: "in_bag", headline: "in the bag since Mon 9 Nov", coldLine: "needs 90 days warm, then 90 days cold · 68 to go", coldDone: 22, coldToGo: 68, doneDays: 112, startByBefore: "about 26 weeks before frost" },
+      want: { status: "in_bag", headline: "in the bag since Mon 9 Nov — ready Sat 8 May", coldLine: "needs 90 days warm, then 90 days cold · 68 to go", coldDone: 22, coldToGo: 68, doneDays: 112, startByBefore: "about 26 weeks before frost" },
     },
     {
       name: "cold-only bag that went in three days late says so",
       input: lane(milkweed, -6, { startedOn: day("Tue 16 Mar 2027"), outOn: null }), today: "Sat 20 Mar 2027",
-      want: { status: "in_bag", headline: "in the cold since Tue 16 Mar (3 days after the start-by day)", coldDone: 4, coldToGo: 10 },
+      want: { status: "in_bag", headline: "in the cold since Tue 16 Mar (3 days after the start-by day) — ready Tue 30 Mar", coldDone: 4, coldToGo: 10 },
     },
     {
       name: "a bag only planned (no start day yet) still counts as not started",
@@ -109,6 +109,15 @@ describe("countDownLane: when the bag goes in and the cold still to come, in wor
     },
   ])("$name", ({ input, today, want }) => {
     expect(countDownLane(input, frost, "frost", day(today))).toMatchObject(want);
+  });
+
+  it("draws a started bag from the day it went in: three days late ends three days past sowing, with no lead-in", () => {
+    const l = countDownLane(lane(milkweed, -6, { startedOn: day("Tue 16 Mar 2027"), outOn: null }), frost, "frost", day("Sat 20 Mar 2027"));
+    // Tue 16 Mar → Sat 8 May is 53 days; + 14 days cold ends Tue 30 Mar, 39 days before frost; sowing is 42 days before.
+    expect(l.segments.map((s) => [s.startsBefore, s.endsBefore])).toEqual([[53, 39]]);
+    expect(l.sowBefore).toBe(42);
+    expect(l.leadInBefore).toBeNull();
+    expect(countDownLane(lane(milkweed, -6), frost, "frost", day("Sat 20 Mar 2027")).leadInBefore).toBe(70); // Sat 27 Feb
   });
 
   it("reads the lane as one sentence, phases in order (Sat 5 Dec + 180 days = Thu 3 Jun, 26 days after sowing)", () => {
