@@ -1,4 +1,4 @@
-import { addDaysToIsoDay, countDaysBetween, parseIsoDay, type IsoDay } from "@/lib/domain/dates";
+import { addDaysToIsoDay, countDaysBetween, formatDayInWords, parseIsoDay, type IsoDay } from "@/lib/domain/dates";
 import type { PhaseKind } from "@/lib/schemas/vocabulary";
 import type { PhaseStartBy } from "@/lib/domain";
 
@@ -52,7 +52,7 @@ export interface SeasonLane {
   coldLine: string;
   /** "13 weeks before frost" for the start-by day; null without a start-by. */
   startByBefore: string | null;
-  /** One sentence a screen reader reads for the lane, phases in order. */
+  /** The gauge in one sentence for a screen reader (the tag's words are read as they are): phases in order, then sowing. */
   spoken: string;
 }
 
@@ -70,15 +70,14 @@ export interface SeasonCountdown {
 }
 
 const weekdays = ["Sun", "Mon", "Tue", "Wed", "Thu", "Fri", "Sat"];
-const months = ["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"];
 const COLD_KINDS: ReadonlySet<PhaseKind> = new Set<PhaseKind>(["cold_moist", "frozen"]);
 const phaseWords: Record<PhaseKind, string> = { warm_moist: "warm", cold_moist: "cold", frozen: "frozen", scarify: "scarified", light: "in light" };
 
 /** "2027-01-08" → "Fri 8 Jan"; the year is added only for a day more than half a year from `today` (or with no today). */
 export function formatDayWithWeekday(day: IsoDay, today?: IsoDay): string {
-  const d = parseIsoDay(day);
-  const year = !today || Math.abs(countDaysBetween(today, day)) > 183 ? ` ${d.getFullYear()}` : "";
-  return `${weekdays[d.getDay()]} ${d.getDate()} ${months[d.getMonth()]}${year}`;
+  const withYear = !today || Math.abs(countDaysBetween(today, day)) > 183;
+  const words = formatDayInWords(day); // "8 Jan 2027", the way every sentence writes a day
+  return `${weekdays[parseIsoDay(day).getDay()]} ${withYear ? words : words.replace(/ \d{4}$/, "")}`;
 }
 
 /** Whole days from today to a day, in words: "today", "tomorrow", "in 5 days", "3 weeks from now", "12 days ago". */
@@ -198,7 +197,7 @@ export function countDownLane(input: SeasonLaneInput, anchor: IsoDay, anchorKind
     headline,
     coldLine,
     startByBefore: startBy ? describeWeeksBefore(before(startBy), anchorKind) : null,
-    spoken: `${input.label}: ${headline}; ${coldLine}.${spokenPhases ? ` ${spokenPhases[0].toUpperCase()}${spokenPhases.slice(1)};` : ""} ${sowWords}.`,
+    spoken: `${spokenPhases ? `${spokenPhases[0].toUpperCase()}${spokenPhases.slice(1)}; ` : ""}${sowWords}.`,
   };
 }
 

@@ -120,10 +120,12 @@ describe("countDownLane: when the bag goes in and the cold still to come, in wor
     expect(countDownLane(lane(milkweed, -6), frost, "frost", day("Sat 20 Mar 2027")).leadInBefore).toBe(70); // Sat 27 Feb
   });
 
-  it("reads the lane as one sentence, phases in order (Sat 5 Dec + 180 days = Thu 3 Jun, 26 days after sowing)", () => {
-    expect(countDownLane(lane(elder, 0), frost, "frost", day("Sat 5 Dec 2026")).spoken).toBe(
-      "Sambucus canadensis: late: should have started Mon 9 Nov — starting today, ready Thu 3 Jun, 3 weeks after sowing; needs 90 days warm, then 90 days cold · 90 to go. 90 days warm from Mon 9 Nov, then 90 days cold from Sun 7 Feb; sow Sat 8 May, at frost.",
-    );
+  it("late warm-then-cold: ready three weeks after sowing (Sat 5 Dec + 180 days = Thu 3 Jun, 26 days after Sat 8 May)", () => {
+    const l = countDownLane(lane(elder, 0), frost, "frost", day("Sat 5 Dec 2026"));
+    expect(l.headline).toBe("late: should have started Mon 9 Nov — starting today, ready Thu 3 Jun, 3 weeks after sowing");
+    expect(l.coldLine).toBe("needs 90 days warm, then 90 days cold · 90 to go");
+    // What the gauge shows, as one sentence for a screen reader: the phases in order, then sowing.
+    expect(l.spoken).toBe("90 days warm from Mon 9 Nov, then 90 days cold from Sun 7 Feb; sow Sat 8 May, at frost.");
   });
 });
 
