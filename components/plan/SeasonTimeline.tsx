@@ -91,7 +91,7 @@ function FrostRule({ countdown, at }: { countdown: SeasonCountdown; at: (d: numb
     <div>
       <p className="flex justify-between text-label text-ink-soft">
         <span>weeks before {countdown.anchorKind === "frost" ? "last frost" : "sowing"} →</span>
-        <span className="font-semibold text-glacier-800">{countdown.anchorKind === "frost" ? "❄ last frost" : "sowing"}</span>
+        <span className="font-semibold text-glacier-800">{countdown.anchorKind === "frost" ? (countdown.after === 0 ? "❄ last frost" : "❄ = last frost") : "sowing"}</span>
       </p>
       <div className="relative h-6 border-b-2 border-ink-soft/60 text-label font-semibold text-ink">
         {countdown.ticks.map((t, i) =>

@@ -210,7 +210,8 @@ export function countDownSeason(rows: readonly SeasonLaneInput[], frostOn: IsoDa
   const anchorKind = frostOn ? "frost" : "sowing";
   const lanes = rows.map((r) => countDownLane(r, frostOn ?? r.sowOn, anchorKind, today));
   const earliest = Math.max(0, ...lanes.map((l) => Math.max(l.leadInBefore ?? 0, ...l.segments.map((s) => s.startsBefore), l.sowBefore)));
-  const latest = Math.max(0, ...lanes.map((l) => -l.sowBefore));
+  // A bag started late runs past its sowing day, maybe past the frost: the scale reaches its end too.
+  const latest = Math.max(0, ...lanes.map((l) => Math.max(-l.sowBefore, ...l.segments.map((s) => -s.endsBefore))));
   const step = earliest > 40 * 7 ? 8 : earliest > 12 * 7 ? 4 : 2; // weeks between labelled ticks: a handful on a phone
   const before = Math.max(step, Math.ceil(earliest / 7 / step) * step) * 7;
   const after = Math.ceil(latest / 7) * 7;

@@ -154,6 +154,14 @@ describe("countDownSeason: one scale of weeks before the frost", () => {
     if (weeks === -2) expect(s.ticks.map((t) => t.label)).toEqual(["6 wk", "4 wk", "2 wk", "frost"]);
   });
 
+  it("a bag started late that ends after the frost stretches the scale past it", () => {
+    // Warm 90 + cold 90 from Sat 5 Dec 2026 ends Thu 3 Jun 2027, 26 days after the frost → 4 whole weeks after.
+    const s = countDownSeason([lane(elder, 0, { startedOn: day("Sat 5 Dec 2026"), outOn: null })], frost, day("Sat 5 Dec 2026"))!;
+    expect(s.lanes[0].segments.at(-1)?.endsBefore).toBe(-26);
+    expect(s.after).toBe(28);
+    expect(placeOnScale(s, -26)).toBeLessThanOrEqual(100);
+  });
+
   it("without a frost date each species counts back from its own sowing day", () => {
     const s = countDownSeason([lane(milkweed, -6)], null, day("Sat 5 Dec 2026"))!;
     expect(s.anchorKind).toBe("sowing");
