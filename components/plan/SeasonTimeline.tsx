@@ -89,7 +89,7 @@ export function SeasonTimeline({ countdown, today }: { countdown: SeasonCountdow
 function FrostRule({ countdown, at }: { countdown: SeasonCountdown; at: (d: number) => number }) {
   return (
     <div>
-      <p className="flex justify-between text-label text-ink-soft">
+      <p className="flex flex-wrap justify-between gap-x-3 text-label text-ink-soft">
         <span>weeks before {countdown.anchorKind === "frost" ? "last frost" : "sowing"} →</span>
         <span className="font-semibold text-glacier-800">{countdown.anchorKind === "frost" ? (countdown.after === 0 ? "❄ last frost" : "❄ = last frost") : "sowing"}</span>
       </p>
