@@ -21,9 +21,9 @@ import { useToday } from "@/components/bags/use-farm-rows";
 import { describeSaveError } from "@/components/bags/save-error";
 import { useMember } from "@/components/season/use-member";
 import { describeMonthDay } from "@/components/settings/frost-date";
-import { computePlanRow, pickPlanProtocol, summarizeSpeciesHistory, type PlanRowResult } from "./plan-rows";
+import { computePlanRow, findFrostDay, pickPlanProtocol, summarizeSpeciesHistory, type PlanRowResult } from "./plan-rows";
 import { readProtocolRow } from "@/lib/domain/rows/protocol-row";
-import { layOutTimeline } from "./timeline";
+import { countDownSeason } from "./timeline";
 import { PlanItemForm } from "./PlanItemForm";
 import { SeasonTimeline } from "./SeasonTimeline";
 import { StartBagForm } from "./StartBagForm";
@@ -77,14 +77,28 @@ export function PlanScreen() {
       .sort((a, b) => (a.result.plan?.startBy ?? a.result.plan?.sowOn ?? "9999").localeCompare(b.result.plan?.startBy ?? b.result.plan?.sowOn ?? "9999") || a.item.species.localeCompare(b.item.species));
   }, [rows, chosen, lastFrost, today]);
 
-  const timeline = useMemo(
-    () => layOutTimeline(computed.filter((c) => c.result.plan).map((c) => ({ id: c.item.id, label: c.item.species, sowOn: c.result.plan!.sowOn, phases: c.result.plan!.phases })), today),
-    [computed, today],
+  const countdown = useMemo(
+    () =>
+      countDownSeason(
+        computed
+          .filter((c) => c.result.plan)
+          .map((c) => ({
+            id: c.item.id,
+            label: c.item.species,
+            sowOn: c.result.plan!.sowOn,
+            phases: c.result.plan!.phases,
+            // A discarded bag no longer carries the row's cold: the row reads as not started again.
+            bag: c.bag && !c.bag.discarded_on ? { startedOn: c.bag.start_date, outOn: c.bag.pulled_on ?? c.bag.sown_on } : null,
+          })),
+        findFrostDay(chosen, lastFrost),
+        today,
+      ),
+    [computed, chosen, lastFrost, today],
   );
   const canPlan = can("plan.upsert");
 
   return (
-    <div className="mx-auto max-w-xl lg:max-w-4xl space-y-4 px-4 pb-28 pt-4">
+    <div className="mx-auto max-w-xl space-y-4 px-4 pb-28 pt-4 lg:max-w-6xl">
       <PageHeader
         title="Season plan"
         subtitle={lastFrost ? `Average last frost ${describeMonthDay(lastFrost)}${identity?.farm.location_note ? ` · ${identity.farm.location_note}` : ""}` : "Set the farm's last frost date to date the plan."}
@@ -115,10 +129,10 @@ export function PlanScreen() {
         </Card>
       ) : null}
       {rows === undefined ? <p className="text-ink-soft">Opening the plan on this phone…</p> : null}
-      {timeline ? (
+      {countdown ? (
         <Card>
-          <h2 className="mb-2 text-body font-bold text-glacier-800">The season at a glance</h2>
-          <SeasonTimeline timeline={timeline} />
+          <h2 className="mb-1 text-body font-bold text-glacier-800">{countdown.anchorKind === "frost" ? "Countdown to the frost" : "Countdown to sowing"}</h2>
+          <SeasonTimeline countdown={countdown} today={today} />
         </Card>
       ) : null}
       {rows && computed.length === 0 ? (
@@ -126,7 +140,7 @@ export function PlanScreen() {
           <p>Nothing planned for {chosen} yet. Add each species with the plants you want and when it should be sown; Rimebook works out when each bag must go in and how much seed it takes.</p>
         </Card>
       ) : null}
-      <ul className="space-y-3">
+      <ul className="space-y-3 lg:grid lg:grid-cols-2 lg:gap-4 lg:space-y-0">
         {computed.map((c) => (
           <li key={c.item.id}>
             <PlanRowCard

@@ -105,7 +105,7 @@ describe("season screens on a phone", () => {
 
   it("starts a bag from a plan row: the bag and the row point at each other on the server", async () => {
     await page.goto("/plan");
-    await page.getByText("The season at a glance").waitFor();
+    await page.getByText("Countdown to the frost").waitFor();
     await page.getByRole("button", { name: "Start this bag" }).first().click();
     await page.getByRole("button", { name: "Start bag today" }).click();
     await page.getByText("started today and linked").waitFor();

@@ -1,5 +1,4 @@
 import { describe, expect, it } from "vitest";
-import { layOutTimeline } from "@/components/plan/timeline";
 import { PlanForm, planFormToItem, planItemToForm } from "@/components/plan/plan-form";
 import { PlanItemInput } from "@/lib/schemas/plan";
 import { computePlanRow, findFrostDay, pickPlanProtocol, summarizeSpeciesHistory } from "@/components/plan/plan-rows";
@@ -145,36 +144,6 @@ describe("pickPlanProtocol and findFrostDay", () => {
     { season: 2027, frost: "05-10", want: "2027-05-10" },
     { season: 2027, frost: null, want: null },
   ])("frost $frost in $season", ({ season, frost, want }) => expect(findFrostDay(season, frost)).toBe(want));
-});
-
-describe("layOutTimeline", () => {
-  // Sambucus: warm 90 then cold 90, sown 2027-04-14 (Young & Young 1992 shape); cold-only 14–28 days sown 2027-03-29.
-  const rows = [
-    { id: "a", label: "Sambucus", sowOn: "2027-04-14", phases: [{ kind: "warm_moist" as const, startBy: "2026-10-16", startFrom: "2026-10-16" }, { kind: "cold_moist" as const, startBy: "2027-01-14", startFrom: "2027-01-14" }] },
-    { id: "b", label: "Asclepias", sowOn: "2027-03-29", phases: [{ kind: "cold_moist" as const, startBy: "2027-03-15", startFrom: "2027-03-01" }] },
-  ];
-  const t = layOutTimeline(rows, "2026-12-01", 0)!;
-
-  it.each([
-    { what: "the range runs from the earliest start to the latest sowing", got: [t.from, t.to], want: ["2026-10-16", "2027-04-14"] },
-    { what: "the first bar starts at the left edge", got: t.rows[0].bars[0].left, want: 0 },
-    { what: "the last sowing is at the right edge", got: t.rows[0].sow, want: 100 },
-    { what: "phases meet: warm ends where cold starts", got: t.rows[0].bars[0].left + t.rows[0].bars[0].width, want: t.rows[0].bars[1].left },
-    { what: "the last bar ends at the sowing date", got: t.rows[1].bars[0].left + t.rows[1].bars[0].width, want: t.rows[1].sow },
-    // 2026-10-16 → 2026-12-01 is 46 of 180 days
-    { what: "today sits 46/180 of the way", got: t.today, want: (100 * 46) / 180 },
-  ])("$what", ({ got, want }) => {
-    if (typeof want === "number") expect(got as number).toBeCloseTo(want, 9);
-    else expect(got).toEqual(want);
-  });
-
-  it("draws the lead-in only where a start range exists, and one tick per month", () => {
-    expect(t.rows[0].leadIn).toBeNull();
-    expect(t.rows[1].leadIn?.width).toBeCloseTo((100 * 14) / 180, 9);
-    expect(t.months.map((m) => m.label)).toEqual(["Nov", "Dec", "Jan", "Feb", "Mar", "Apr"]);
-    expect(layOutTimeline([], "2026-12-01")).toBeNull();
-    expect(layOutTimeline(rows, "2028-01-01")?.today).toBeNull();
-  });
 });
 
 describe("plan form ↔ stored plan row", () => {
