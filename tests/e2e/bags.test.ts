@@ -1,6 +1,6 @@
 // The bag, lot and protocol screens in real Chromium on a phone: a grower sets up a bag from a toxic-seed lot in a
 // food fridge (cautions shown, window from the protocol), the bag reaches the server, an edit lands in the bag's
-// history, the table finds it, a viewer only reads, and a published protocol is copied to the farm's own.
+// history, the table finds it, a visitor only reads, and a published protocol is copied to the farm's own.
 import Database from "better-sqlite3";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
@@ -127,7 +127,7 @@ describe("bags, lots and protocols on a phone", () => {
     await context.close();
   }, 180_000);
 
-  it("shows a viewer the bag without any action that changes it", async () => {
+  it("shows a visitor the bag without any action that changes it", async () => {
     const context = await phoneContext(browser, app.origin);
     const page = await context.newPage();
     await signIn(page, "juniper@bramblewick.example", "viewer-frost-demo");
