@@ -136,6 +136,17 @@ describe("bags, lots and protocols on a phone", () => {
     await page.getByText("Your role can read this bag but not change it.").waitFor();
     for (const name of ["Edit", "Pull", "Discard", "Check now"]) await expect(page.getByRole("button", { name, exact: true }).count()).resolves.toBe(0);
     await expect(page.getByRole("link", { name: "New bag" }).count()).resolves.toBe(0);
+    // The demo's read-only member is a Visitor (the role's own word), on the Team page and in Settings.
+    await page.goto("/team");
+    const me = page.getByRole("listitem").filter({ hasText: "Juniper Cole" });
+    await me.getByText("Visitor", { exact: true }).waitFor();
+    expect(await page.getByText(/viewer/i).count()).toBe(0);
+    await shoot(page, "bags-team-visitor");
+    await page.setViewportSize({ width: 1280, height: 800 });
+    await shoot(page, "bags-team-visitor-desktop");
+    await page.setViewportSize({ width: 390, height: 844 });
+    await page.goto("/settings");
+    await page.getByText("you are Visitor").waitFor();
     await context.close();
   }, 120_000);
 
