@@ -10,24 +10,20 @@ import type { Knex } from "knex";
 // the migration in one transaction (the farm rows stay locked until it commits).
 
 export async function up(knex: Knex): Promise<void> {
-  const at = new Date().toISOString();
-  const farms: { farm_id: string }[] = await knex("memberships").distinct("farm_id").where({ role: "viewer" });
-  for (const { farm_id } of farms) {
-    await knex("farms").where({ id: farm_id }).increment("seq", 1);
-    const farm = await knex("farms").where({ id: farm_id }).first("seq");
-    await knex("memberships").where({ farm_id, role: "viewer" }).update({ role: "visitor", seq: Number(farm.seq), updated_at: at });
-  }
-  await knex("invites").where({ role: "viewer" }).update({ role: "visitor" });
+  await renameRole(knex, "viewer", "visitor");
 }
 
 export async function down(knex: Knex): Promise<void> {
-  // The same rename back, for a rollback to code that only knows "viewer".
+  await renameRole(knex, "visitor", "viewer"); // for a rollback to code that only knows "viewer"
+}
+
+async function renameRole(knex: Knex, from: string, to: string): Promise<void> {
   const at = new Date().toISOString();
-  const farms: { farm_id: string }[] = await knex("memberships").distinct("farm_id").where({ role: "visitor" });
+  const farms: { farm_id: string }[] = await knex("memberships").distinct("farm_id").where({ role: from });
   for (const { farm_id } of farms) {
     await knex("farms").where({ id: farm_id }).increment("seq", 1);
     const farm = await knex("farms").where({ id: farm_id }).first("seq");
-    await knex("memberships").where({ farm_id, role: "visitor" }).update({ role: "viewer", seq: Number(farm.seq), updated_at: at });
+    await knex("memberships").where({ farm_id, role: from }).update({ role: to, seq: Number(farm.seq), updated_at: at });
   }
-  await knex("invites").where({ role: "visitor" }).update({ role: "viewer" });
+  await knex("invites").where({ role: from }).update({ role: to });
 }
