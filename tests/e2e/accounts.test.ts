@@ -65,6 +65,7 @@ describe("a farm and its team, in the browser", () => {
   it("invites a Helper from the Team page; the e-mail arrives in the local mailbox with its link", async () => {
     await ownerPage.goto("/team");
     // The role ladder in the product's own words, the read-only end included.
+    await ownerPage.getByRole("button", { name: "Send invite" }).waitFor();
     const roleChoices = (await ownerPage.getByLabel("Role", { exact: true }).locator("option").allTextContents()).map((t) => t.split(" — ")[0]);
     expect(roleChoices).toEqual(["Owner", "Grower", "Helper", "Visitor"]);
     expect(await ownerPage.getByText(/viewer/i).count()).toBe(0);
