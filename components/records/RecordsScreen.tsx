@@ -9,6 +9,7 @@ import { getSyncEngine } from "@/lib/client/sync";
 import { buttonClass, Button } from "@/components/ui/Button";
 import { Card, PageHeader } from "@/components/ui/Card";
 import { useMember } from "@/components/season/use-member";
+import { vocabularyLabels, type Role } from "@/lib/schemas/vocabulary";
 
 // Records: the farm's records as spreadsheet files, the Owner's backup, and restoring a backup into a new farm.
 // Downloads come from the server (they need signal); everything else on the phone keeps working without it.
@@ -21,7 +22,7 @@ const exportsList = [
   { what: "readings", title: "Cold-store readings", contains: "Every temperature reading: cold store, kind, time, °C (and °F for a farm that reads °F), typed or imported." },
 ] as const;
 
-type RestoreReport = { restored: Record<string, number>; photosWithoutPicture: number; membersToInvite: { name: string | null; email: string; role: string }[] };
+type RestoreReport = { restored: Record<string, number>; photosWithoutPicture: number; membersToInvite: { name: string | null; email: string; role: Role }[] };
 type RestoreState = { status: "idle" } | { status: "busy" } | { status: "done"; report: RestoreReport } | { status: "error"; message: string };
 
 export function RecordsScreen() {
@@ -170,7 +171,7 @@ function RestorePanel() {
             ) : null}
             {state.report.membersToInvite.length ? (
               <p>
-                Invite the other members again from the Team screen: {state.report.membersToInvite.map((m) => `${m.name ?? m.email} (${m.role})`).join(", ")}.
+                Invite the other members again from the Team screen: {state.report.membersToInvite.map((m) => `${m.name ?? m.email} (${vocabularyLabels.role[m.role] ?? m.role})`).join(", ")}.
                 Their past checks are kept, without their names.
               </p>
             ) : null}

@@ -5,5 +5,5 @@ export const roleHints: Record<Role, string> = {
   owner: "everything, including the team",
   grower: "plans, lots, protocols, bags and checks",
   helper: "checks, pulls, sowings and counts",
-  viewer: "sees the records",
+  visitor: "sees the records",
 };

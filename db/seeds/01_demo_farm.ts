@@ -52,7 +52,7 @@ export async function seed(knex: Knex): Promise<void> {
       const id = randomUUID();
       userIds[m.key] = id;
       await trx("users").insert({ id, email: m.email, name: m.name, password_hash: await hashPassword(m.password), created_at: now, updated_at: now });
-      await trx("memberships").insert({ id: randomUUID(), user_id: id, role: m.role, digest_opt_in: m.role !== "viewer", ...stamp() });
+      await trx("memberships").insert({ id: randomUUID(), user_id: id, role: m.role, digest_opt_in: m.role !== "visitor", ...stamp() });
     }
 
     // The starter protocol library, as every new farm gets it.

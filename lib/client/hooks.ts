@@ -3,7 +3,7 @@
 import { useEffect, useState, useSyncExternalStore } from "react";
 import { useLiveQuery } from "dexie-react-hooks";
 import { getLocalDb, type OutboxEntry, type PendingPhoto } from "./db";
-import { META, type PhoneIdentity } from "./meta";
+import { readIdentity, type PhoneIdentity } from "./meta";
 import { getSyncEngine, outboxCounts, type SyncState } from "./sync";
 import { nothingWaiting, type WaitingTally } from "./waiting";
 
@@ -65,7 +65,7 @@ export function useSyncStatus(): SyncStatus {
 
 /** The signed-in member as this phone remembers it; null when nobody is, undefined while loading. */
 export function useIdentity(): PhoneIdentity | null | undefined {
-  return useLiveQuery(async () => ((await getLocalDb().meta.get(META.identity))?.value as PhoneIdentity | undefined) ?? null, []);
+  return useLiveQuery(async () => (await readIdentity(getLocalDb())) ?? null, []);
 }
 
 /** Changes the server refused (kept until the person dismisses or retries them), newest first. */

@@ -1,6 +1,6 @@
 import { SCREENS_CACHE_PREFIX } from "./cache-names";
 import { farmTables, getLocalDb, type RimebookDB } from "./db";
-import { META, readMeta, writeMeta, type PhoneIdentity } from "./meta";
+import { META, readIdentity, readMeta, writeMeta, type PhoneIdentity } from "./meta";
 import { getSyncEngine, setSyncEngine } from "./sync";
 import { dropPushSubscription } from "./reminders";
 import { readWaiting, type WaitingTally } from "./waiting";
@@ -12,7 +12,7 @@ import { readWaiting, type WaitingTally } from "./waiting";
 type Net = { fetch?: typeof fetch; baseUrl?: string; db?: RimebookDB };
 
 export async function loadIdentity(db: RimebookDB = getLocalDb()): Promise<PhoneIdentity | null> {
-  return (await readMeta<PhoneIdentity>(db, META.identity)) ?? null;
+  return (await readIdentity(db)) ?? null;
 }
 
 /**

@@ -1,4 +1,4 @@
-import type { Role } from "@/lib/schemas/vocabulary";
+import { Role } from "@/lib/schemas/vocabulary";
 import type { RimebookDB } from "./db";
 
 // Keys of the phone store's meta table, and the identity the app needs to open with no signal.
@@ -28,6 +28,27 @@ export type PhoneIdentity = {
   farm: FarmSettings;
   role: Role;
 };
+
+/**
+ * The one way the phone reads its identity: roles go through the Role schema, so a phone that last
+ * synced before "viewer" became "visitor" reads itself (and its other farms) as a Visitor. A role
+ * the schema does not know reads as the least one (a Visitor can change nothing); the next pull
+ * brings the server's word.
+ */
+export function identityFrom<T extends PhoneIdentity>(value: T | undefined): T | undefined {
+  if (!value) return value;
+  const role = (r: unknown): Role => Role.catch("visitor").parse(r);
+  const farms = (value as { farms?: unknown }).farms;
+  return {
+    ...value,
+    role: role(value.role),
+    ...(Array.isArray(farms) ? { farms: farms.map((f: { role?: unknown }) => ({ ...f, role: role(f.role) })) } : {}),
+  };
+}
+
+export async function readIdentity<T extends PhoneIdentity = PhoneIdentity>(db: RimebookDB): Promise<T | undefined> {
+  return identityFrom(await readMeta<T>(db, META.identity));
+}
 
 export async function readMeta<T>(db: RimebookDB, key: string): Promise<T | undefined> {
   return (await db.meta.get(key))?.value as T | undefined;

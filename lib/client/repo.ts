@@ -16,7 +16,7 @@ import type { TrialDetails, TrialInput } from "@/lib/schemas/trial";
 import type { FarmSettings } from "@/lib/schemas/farm";
 import { getLocalDb, type RimebookDB } from "./db";
 import { applyEffectsLocally, writeTables } from "./local-apply";
-import { META, readMeta, type PhoneIdentity } from "./meta";
+import { readIdentity } from "./meta";
 import { nudgeSync } from "./sync-signal";
 
 // The only way the UI writes: each function validates with the shared schema, writes the row(s)
@@ -34,7 +34,7 @@ export async function runMutation<N extends MutationName>(name: N, input: InputO
   const args = mutationTable[name].args.parse(input) as MutationArgs<N>;
   const at = new Date().toISOString();
   await db.transaction("rw", writeTables(db), async () => {
-    const identity = await readMeta<PhoneIdentity>(db, META.identity);
+    const identity = await readIdentity(db);
     if (!identity) throw new AppError("unauthenticated", "Sign in on this phone first; nothing was saved.", undefined, 401);
     if (!canRun(identity.role, name)) throw new AppError("forbidden", "Your role on this farm does not allow that.", undefined, 403);
     await localGuards[name]?.(db, args as never);

@@ -1,6 +1,6 @@
 import { getLocalDb, type OutboxEntry, type RimebookDB } from "./db";
 import { applyEffectsLocally, applyPulledPage, effectsOfEntry, undoRejected, writeTables, type PulledChange } from "./local-apply";
-import { META, deviceIdOf, readMeta, writeMeta, type FarmSettings, type PhoneIdentity } from "./meta";
+import { META, deviceIdOf, readIdentity, readMeta, writeMeta, type FarmSettings, type PhoneIdentity } from "./meta";
 import { setSyncNudger } from "./sync-signal";
 import { splitPhotos, tallyWaiting, type WaitingTally } from "./waiting";
 
@@ -159,7 +159,7 @@ export class SyncEngine {
   }
 
   private async runOnce(): Promise<void> {
-    const identity = await readMeta<PhoneIdentity>(this.db, META.identity);
+    const identity = await readIdentity(this.db);
     if (!identity) {
       this.set({ phase: "needs_sign_in", error: null });
       return;
@@ -286,7 +286,7 @@ export class SyncEngine {
       await db.transaction("rw", writeTables(db), async () => {
         await applyPulledPage(db, page.changes, stamp);
         await writeMeta(db, META.cursor, page.cursor);
-        const current = (await readMeta<PhoneIdentity>(db, META.identity)) ?? identity;
+        const current = (await readIdentity(db)) ?? identity;
         await writeMeta(db, META.identity, { ...current, role: page.role ?? current.role, farm: { ...current.farm, ...page.farm } });
         if (!page.more) {
           await writeMeta(db, META.firstPullDone, true);
@@ -333,7 +333,7 @@ export type RetryResult = { ok: true } | { ok: false; message: string };
 export async function retryRejected(mutationId: string, db: RimebookDB = getLocalDb()): Promise<RetryResult> {
   const entry = await db.outbox.where("id").equals(mutationId).first();
   if (!entry || entry.n === undefined || entry.status !== "rejected") return { ok: true };
-  const identity = await readMeta<PhoneIdentity>(db, META.identity);
+  const identity = await readIdentity(db);
   if (!canRetryAs(entry, identity)) {
     return { ok: false, message: "This was recorded by someone else, or on another farm. Only they can send it, signed in on that farm on this phone." };
   }

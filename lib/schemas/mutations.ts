@@ -33,7 +33,7 @@ const patchOf = <T extends z.ZodObject>(patch: T) => z.object({ id: Id, patch: e
 
 export const mutationTable = {
   "farm.update": { minRole: "owner", args: editOf(FarmSettings) },
-  "member.preferences": { minRole: "viewer", args: z.object({ digest_opt_in: z.boolean() }) },
+  "member.preferences": { minRole: "visitor", args: z.object({ digest_opt_in: z.boolean() }) },
 
   "protocol.upsert": {
     minRole: "grower",
@@ -76,7 +76,7 @@ export const actionTable = {
   "team.manage": "owner",
   "farm.backup": "owner",
   "farm.restore": "owner",
-  "export.read": "viewer",
+  "export.read": "visitor",
   "import.lots": "grower",
   "import.readings": "grower",
   "photo.upload": "helper",
@@ -85,7 +85,7 @@ export type ActionName = keyof typeof actionTable;
 
 const rank: Record<Role, number> = Object.fromEntries(roles.map((r, i) => [r, roles.length - i])) as Record<Role, number>;
 
-/** Owner ⊃ Grower ⊃ Helper ⊃ Viewer. */
+/** Owner ⊃ Grower ⊃ Helper ⊃ Visitor. */
 export function roleAtLeast(role: Role, needed: Role): boolean {
   return rank[role] >= rank[needed];
 }

@@ -2,9 +2,16 @@ import { z } from "zod";
 
 // The product's fixed words (PRODUCT.md). Everything that stores or shows them imports from here.
 
-export const roles = ["owner", "grower", "helper", "viewer"] as const;
-export const Role = z.enum(roles);
-export type Role = z.infer<typeof Role>;
+export const roles = ["owner", "grower", "helper", "visitor"] as const;
+export type Role = (typeof roles)[number];
+/**
+ * The read-only role was stored and sent as "viewer" until 2026-12-05 (migration
+ * 20261205100000_visitor_role renamed the rows). Phones synced before that and older app versions
+ * may still say it: every parse reads it as "visitor", and nothing ever answers "viewer".
+ */
+export const Role = z
+  .enum([...roles, "viewer"])
+  .transform((r): Role => (r === "viewer" ? "visitor" : r));
 
 export const bagStates = ["planned", "chilling", "window_open", "overdue", "pulled", "sown", "discarded"] as const;
 export const BagState = z.enum(bagStates);
@@ -47,7 +54,7 @@ export type Medium = z.infer<typeof Medium>;
 
 /** Labels a grower reads; keys stay stable in storage. */
 export const vocabularyLabels = {
-  role: { owner: "Owner", grower: "Grower", helper: "Helper", viewer: "Viewer" },
+  role: { owner: "Owner", grower: "Grower", helper: "Helper", visitor: "Visitor" },
   bagState: {
     planned: "Planned",
     chilling: "Chilling",

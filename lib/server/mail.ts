@@ -61,7 +61,7 @@ const roleWords: Record<Role, string> = {
   owner: "as an Owner: you can do everything, including managing the team",
   grower: "as a Grower: you can plan, keep lots, protocols and bags, and record checks",
   helper: "as a Helper: you can record checks, pulls, sowings and counts",
-  viewer: "as a Viewer: you can see the farm's records",
+  visitor: "as a Visitor: you can see the farm's records",
 };
 
 export function inviteMail(opts: { to: string; farmName: string; inviterName: string; role: Role; link: string; expiresAt: string }): Mail {

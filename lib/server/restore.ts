@@ -3,6 +3,7 @@ import { randomUUID } from "node:crypto";
 import type { Knex } from "knex";
 import { AppError } from "@/lib/errors";
 import { FarmSettings } from "@/lib/schemas/farm";
+import { Role } from "@/lib/schemas/vocabulary";
 import { migrationSource } from "@/db/migrations";
 import { BACKUP_FORMAT, BACKUP_VERSION, backupTables } from "./exports";
 import { serializeRow } from "./sync/rows";
@@ -20,7 +21,7 @@ export interface RestoreReport {
   /** Photo rows left out because the backup did not carry their pictures. */
   photosWithoutPicture: number;
   /** Members of the old farm other than the person restoring: invite them again. */
-  membersToInvite: { name: string | null; email: string; role: string }[];
+  membersToInvite: { name: string | null; email: string; role: Role }[];
 }
 
 const refuse = (code: "invalid" | "conflict", message: string, status: number) => new AppError(code, message, undefined, status);
@@ -98,7 +99,7 @@ export async function restoreBackup(db: Knex, target: { farmId: string; userId: 
     photosWithoutPicture: 0,
     membersToInvite: backup.members
       .filter((m) => m.user_id !== restorerOldId && !m.deleted_at && typeof m.email === "string")
-      .map((m) => ({ name: (m.name as string | null) ?? null, email: String(m.email), role: String(m.role ?? "helper") })),
+      .map((m) => ({ name: (m.name as string | null) ?? null, email: String(m.email), role: Role.catch("helper").parse(m.role) })), // a backup from before 2026-12-05 says "viewer"
   };
 
   // Pictures first (files are not transactional): removed again if the rows cannot be written.

@@ -51,7 +51,7 @@ beforeAll(async () => {
 afterAll(async () => ctx.cleanup());
 
 /** A second farm the member also belongs to, as `role`. */
-async function joinSecondFarm(m: TestMember, role: "grower" | "helper" | "viewer" = "helper"): Promise<string> {
+async function joinSecondFarm(m: TestMember, role: "grower" | "helper" | "visitor" = "helper"): Promise<string> {
   const other = await signedInMember(ctx.db, { role: "owner", farmName: "Quill Seed Library" });
   await ctx.db.transaction((trx) => addMembership(trx, { farmId: other.farmId, userId: m.userId, role }));
   return other.farmId;
@@ -99,7 +99,7 @@ describe("change password while signed in", () => {
   });
 
   it("answers invalid input with 400 and the field in words", async () => {
-    const m = await signedInMember(ctx.db, { role: "viewer" });
+    const m = await signedInMember(ctx.db, { role: "visitor" });
     const cases: [unknown, string, RegExp][] = [
       [{ currentPassword: TEST_PASSWORD, newPassword: "short" }, "newPassword", /at least 10 characters/],
       [{ currentPassword: TEST_PASSWORD, newPassword: TEST_PASSWORD }, "newPassword", /same as the current one/],
@@ -146,7 +146,7 @@ describe("change password while signed in", () => {
 describe("display name", () => {
   it("renames the person: /api/me answers the new name, and both farms' team lists pull it", async () => {
     const m = await signedInMember(ctx.db, { role: "helper", name: "Moss F." });
-    const secondFarm = await joinSecondFarm(m, "viewer");
+    const secondFarm = await joinSecondFarm(m, "visitor");
     const seqBefore = await ctx.db("memberships").where({ user_id: m.userId }).select("farm_id", "seq");
     const res = await patchMe(send("PATCH", "/api/me", { name: "  Moss Fenwick " }, { cookie: m.cookie }), noCtx);
     expect(res.status).toBe(200);
@@ -169,7 +169,7 @@ describe("display name", () => {
   });
 
   it("refuses an empty or overlong name (400 with the field), another origin (403), and no session (401)", async () => {
-    const m = await signedInMember(ctx.db, { role: "viewer", name: "Juniper" });
+    const m = await signedInMember(ctx.db, { role: "visitor", name: "Juniper" });
     const empty = await patchMe(send("PATCH", "/api/me", { name: "   " }, { cookie: m.cookie }), noCtx);
     expect(empty.status).toBe(400);
     expect((await empty.json()).error.fields.name).toBe("Enter your name, as your team knows you.");

@@ -166,7 +166,7 @@ describe("sign-in rate limit", () => {
       const r = await signIn(post("/api/auth/sign-in", { email: `guess${i}@example.test`, password: "not this one" }, { ip }), noCtx);
       expect(r.status).toBe(401);
     }
-    const m = await signedInMember(ctx.db, { role: "viewer" });
+    const m = await signedInMember(ctx.db, { role: "visitor" });
     const locked = await signIn(post("/api/auth/sign-in", { email: m.email, password: TEST_PASSWORD }, { ip }), noCtx);
     expect(locked.status).toBe(429);
     expect((await locked.json()).error.message).toMatch(/try again in \d+ minutes?/);
@@ -219,7 +219,7 @@ describe("invites over real SMTP to the local fake", () => {
     expect((await again.json()).error.message).toMatch(/already been used/);
 
     // The Helper is limited to what a Helper may do.
-    expect((await invite(post("/api/invites", { email: "y@example.test", role: "viewer" }, { cookie: helperCookie }), noCtx)).status).toBe(403);
+    expect((await invite(post("/api/invites", { email: "y@example.test", role: "visitor" }, { cookie: helperCookie }), noCtx)).status).toBe(403);
   });
 
   it("adds the farm to an existing account when its password is given, keeping the account's name", async () => {
@@ -245,7 +245,7 @@ describe("invites over real SMTP to the local fake", () => {
 
   it("rate-limits password guesses through an invite link for an existing account", async () => {
     const target = await signedInMember(ctx.db, { role: "owner", farmName: "Target Farm" });
-    await invite(post("/api/invites", { email: target.email, role: "viewer" }, { cookie: owner.cookie }), noCtx);
+    await invite(post("/api/invites", { email: target.email, role: "visitor" }, { cookie: owner.cookie }), noCtx);
     const token = mailTo(target.email)[0].links[0].split("/invite/")[1];
     for (let i = 0; i < 5; i++) {
       const r = await acceptInviteRoute(post("/api/invites/accept", { token, password: `guess number ${i}` }, { ip: `192.0.2.${50 + i}` }), noCtx);
@@ -258,12 +258,12 @@ describe("invites over real SMTP to the local fake", () => {
   });
 
   it("refuses to invite someone already on the team (409)", async () => {
-    const res = await invite(post("/api/invites", { email: owner.email, role: "viewer" }, { cookie: owner.cookie }), noCtx);
+    const res = await invite(post("/api/invites", { email: owner.email, role: "visitor" }, { cookie: owner.cookie }), noCtx);
     expect(res.status).toBe(409);
   });
 
   it("resend gives a fresh link (the old one stops working); revoke withdraws it", async () => {
-    const created = await (await invite(post("/api/invites", { email: "fern@example.test", role: "viewer" }, { cookie: owner.cookie }), noCtx)).json();
+    const created = await (await invite(post("/api/invites", { email: "fern@example.test", role: "visitor" }, { cookie: owner.cookie }), noCtx)).json();
     const first = mailTo("fern@example.test")[0].links[0].split("/invite/")[1];
     const resent = await resendInviteRoute(post(`/api/invites/${created.invite.id}/resend`, {}, { cookie: owner.cookie }), idCtx(created.invite.id));
     expect(resent.status).toBe(200);
@@ -318,7 +318,7 @@ describe("team: roles, the last Owner, and other farms' ids", () => {
 
     // With two Owners, one may step down.
     await patch(helper.membershipId, "owner");
-    expect((await patch(owner.membershipId, "viewer")).status).toBe(200);
+    expect((await patch(owner.membershipId, "visitor")).status).toBe(200);
 
     const newOwner = helper;
     expect((await remove(owner.membershipId, newOwner.cookie)).status).toBe(200);
@@ -334,7 +334,7 @@ describe("team: roles, the last Owner, and other farms' ids", () => {
     const bInvite = await (await invite(post("/api/invites", { email: "b-only@example.test", role: "helper" }, { cookie: b.cookie }), noCtx)).json();
 
     const patchOther = await patchMember(
-      new Request(new URL(`/api/team/${bHelper.membershipId}`, origin), { method: "PATCH", headers: { cookie: a.cookie, origin }, body: JSON.stringify({ role: "viewer" }) }),
+      new Request(new URL(`/api/team/${bHelper.membershipId}`, origin), { method: "PATCH", headers: { cookie: a.cookie, origin }, body: JSON.stringify({ role: "visitor" }) }),
       idCtx(bHelper.membershipId),
     );
     expect(patchOther.status).toBe(404);
@@ -397,10 +397,10 @@ describe("password reset by e-mailed link", () => {
 
 describe("handlers read role and farm from the database only", () => {
   it("ignores a farm id or role the client sends", async () => {
-    const viewer = await signedInMember(ctx.db, { role: "viewer" });
+    const visitor = await signedInMember(ctx.db, { role: "visitor" });
     const other = await signedInMember(ctx.db, { role: "owner" });
     const res = await invite(
-      memberRequest("/api/invites", viewer, { method: "POST", json: { email: "sneak@example.test", role: "owner", farmId: other.farmId, farm_id: other.farmId, asRole: "owner" } }),
+      memberRequest("/api/invites", visitor, { method: "POST", json: { email: "sneak@example.test", role: "owner", farmId: other.farmId, farm_id: other.farmId, asRole: "owner" } }),
       noCtx,
     );
     expect(res.status).toBe(403);

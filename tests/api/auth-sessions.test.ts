@@ -67,7 +67,7 @@ describe("sessions and requireMember", () => {
   });
 
   it("renews a session in use after a day (rolling 30 days), not before", async () => {
-    const m = await signedInMember(ctx.db, { role: "viewer" });
+    const m = await signedInMember(ctx.db, { role: "visitor" });
     const soon = await readSession(m.token, new Date(Date.now() + 60 * 60 * 1000));
     expect(soon?.renewed).toBeNull();
     const later = new Date(Date.now() + 20 * 86_400_000);
@@ -124,20 +124,20 @@ describe("the role matrix: every role × every mutation and action, through requ
     ctx = await freshDatabase();
     const owner = await signedInMember(ctx.db, { role: "owner" });
     members.owner = owner;
-    for (const r of ["grower", "helper", "viewer"] as const) members[r] = await signedInMember(ctx.db, { role: r, farmId: owner.farmId });
+    for (const r of ["grower", "helper", "visitor"] as const) members[r] = await signedInMember(ctx.db, { role: r, farmId: owner.farmId });
   });
   afterAll(async () => ctx.cleanup());
 
   // Expected from PRODUCT.md: Owner everything; Grower plans, lots, protocols, bags, checks;
-  // Helper checks, pulls, counts (and readings, sowings, photos); Viewer reads only.
+  // Helper checks, pulls, counts (and readings, sowings, photos); Visitor reads only.
   const helperMay = new Set(["member.preferences", "reading.record", "bag.pull", "bag.discard", "check.record", "sowing.record", "count.record", "photo.upload", "export.read"]);
   const ownerOnly = new Set(["farm.update", "team.manage", "farm.backup", "farm.restore"]);
-  const viewerMay = new Set(["member.preferences", "export.read"]);
+  const visitorMay = new Set(["member.preferences", "export.read"]);
   function expected(role: Role, name: string): boolean {
     if (role === "owner") return true;
     if (role === "grower") return !ownerOnly.has(name);
     if (role === "helper") return helperMay.has(name);
-    return viewerMay.has(name);
+    return visitorMay.has(name);
   }
 
   const names = [...mutationNames, ...(Object.keys(actionTable) as ActionName[])];

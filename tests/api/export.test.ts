@@ -10,14 +10,14 @@ import { GET as backupRoute } from "@/app/api/backup/route";
 
 let ctx: Awaited<ReturnType<typeof freshDatabase>>;
 let owner: TestMember;
-let viewer: TestMember;
+let visitor: TestMember;
 let other: TestMember;
 const ids: Record<string, string> = {};
 
 beforeAll(async () => {
   ctx = await freshDatabase();
   owner = await signedInMember(ctx.db, { role: "owner", farmName: "Bramblewick Native Nursery" });
-  viewer = await signedInMember(ctx.db, { role: "viewer", farmId: owner.farmId });
+  visitor = await signedInMember(ctx.db, { role: "visitor", farmId: owner.farmId });
   const f = owner.farmId;
   ids.store = await addStore(ctx.db, f, { name: "Barn fridge" });
   await addReading(ctx.db, f, ids.store, "2026-11-20T06:00:00.000Z", 3.5);
@@ -52,7 +52,7 @@ async function download(member: TestMember | null, query: string) {
 
 describe("GET /api/export", () => {
   it("readings: a CSV download with a header row, the farm's own live readings only", async () => {
-    const { res, text, table } = await download(viewer, "what=readings&format=csv");
+    const { res, text, table } = await download(visitor, "what=readings&format=csv");
     expect(res.status).toBe(200);
     expect(res.headers.get("content-type")).toBe("text/csv; charset=utf-8");
     expect(res.headers.get("content-disposition")).toMatch(/^attachment; filename="rimebook-bramblewick-native-nursery-readings-\d{4}-\d{2}-\d{2}\.csv"/);
@@ -118,7 +118,7 @@ describe("GET /api/export", () => {
   });
 
   it("an empty farm still gets the header row", async () => {
-    const empty = await signedInMember(ctx.db, { role: "viewer" });
+    const empty = await signedInMember(ctx.db, { role: "visitor" });
     const { res, text } = await download(empty, "what=sowings");
     expect(res.status).toBe(200);
     expect(text).toBe("\uFEFFsown_on,bag_code,species,tray,cells,seeds_sown,note,sowing_id,bag_id\r\n");
@@ -146,7 +146,7 @@ describe("GET /api/backup", () => {
     expect(body.counts).toMatchObject({ readings: 3, bags: 1, checks: 1, sowings: 1, counts: 2, lots: 1, stores: 1 });
     expect(body.tables.readings.find((r: { deleted_at: string | null }) => r.deleted_at)).toBeTruthy();
     expect(body.tables.checks[0].actions).toEqual(["added_water"]); // JSON columns as values
-    expect(body.members.map((m: { email: string; role: string }) => m.role).sort()).toEqual(["owner", "viewer"]);
+    expect(body.members.map((m: { email: string; role: string }) => m.role).sort()).toEqual(["owner", "visitor"]);
     for (const secret of ["password_hash", "token_hash", "scrypt", owner.token]) expect(text).not.toContain(secret);
     expect(text).not.toContain("Neighbour");
     expect(text).not.toContain("Secret species");
@@ -155,7 +155,7 @@ describe("GET /api/backup", () => {
   it("is for the Owner only", async () => {
     const grower = await signedInMember(ctx.db, { role: "grower", farmId: owner.farmId });
     expect((await backup(grower)).status).toBe(403);
-    expect((await backup(viewer)).status).toBe(403);
+    expect((await backup(visitor)).status).toBe(403);
     expect((await backup(null)).status).toBe(401);
   });
 });

@@ -83,7 +83,7 @@ describe("POST /api/lots/import", () => {
   });
 
   it("is for Growers and Owners only", async () => {
-    for (const role of ["helper", "viewer"] as const) {
+    for (const role of ["helper", "visitor"] as const) {
       const m = await signedInMember(ctx.db, { role, farmId: owner.farmId });
       const res = await upload(m, "Species\nAchillea millefolium\n");
       expect(res.status).toBe(403);

@@ -191,9 +191,9 @@ describe("POST /api/stores/{id}/readings/import", () => {
     expect(await readingsOf(theirs)).toHaveLength(0);
   });
 
-  it("refuses Helpers and Viewers (403), strangers (401) and other origins (403)", async () => {
+  it("refuses Helpers and Visitors (403), strangers (401) and other origins (403)", async () => {
     const csv = "Time,Temp C\n2026-11-29 08:00,4\n";
-    for (const role of ["helper", "viewer"] as const) {
+    for (const role of ["helper", "visitor"] as const) {
       const m = await signedInMember(ctx.db, { role, farmId: owner.farmId });
       expect((await upload(m, storeId, csv)).status).toBe(403);
     }

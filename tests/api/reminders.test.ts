@@ -42,7 +42,7 @@ const day = (n: number) => addDaysToIsoDay(today, n);
 
 let owner: TestMember;
 let helper: TestMember;
-let viewer: TestMember;
+let visitor: TestMember;
 let neighbour: TestMember;
 
 const state = async (m: Pick<TestMember, "headers">, deviceId: string) => GET(memberRequest(`/api/reminders?deviceId=${deviceId}`, m), noCtx);
@@ -64,7 +64,7 @@ beforeAll(async () => {
   push = await startFakePushService({ vapidPublicKey: keys.publicKey });
   owner = await signedInMember(ctx.db, { role: "owner", farmName: "Bramblewick Native Nursery", name: "Wren" });
   helper = await signedInMember(ctx.db, { role: "helper", farmId: owner.farmId, name: "Ash" });
-  viewer = await signedInMember(ctx.db, { role: "viewer", farmId: owner.farmId, name: "Rook" });
+  visitor = await signedInMember(ctx.db, { role: "visitor", farmId: owner.farmId, name: "Rook" });
   const f = owner.farmId;
   await ctx.db("farms").where({ id: f }).update({ timezone: ZONE });
   // Cold-moist 28–42 days (an invented farm protocol for the test).
@@ -105,9 +105,9 @@ describe("/api/reminders: turning reminders on and off for this phone", () => {
     expect(await res.json()).toEqual({ ok: true, hour: 7, days: [1, 3, 5] });
     const v = push.createSubscription();
     // A farm id in the body is not part of the schema and changes nothing.
-    const res2 = await PUT(memberRequest("/api/reminders", viewer, { method: "PUT", json: { deviceId: "viewer-phone", subscription: v, hour: 6, days: [1, 2, 3, 4, 5, 6, 7], farmId: neighbour.farmId } }), noCtx);
+    const res2 = await PUT(memberRequest("/api/reminders", visitor, { method: "PUT", json: { deviceId: "visitor-phone", subscription: v, hour: 6, days: [1, 2, 3, 4, 5, 6, 7], farmId: neighbour.farmId } }), noCtx);
     expect(res2.status).toBe(200);
-    expect(await rowsOf(viewer.userId)).toEqual([expect.objectContaining({ farm_id: owner.farmId, device_id: "viewer-phone", hour: 6, days: "1234567" })]);
+    expect(await rowsOf(visitor.userId)).toEqual([expect.objectContaining({ farm_id: owner.farmId, device_id: "visitor-phone", hour: 6, days: "1234567" })]);
     const here = await (await state(helper, "helper-phone")).json();
     expect(here.here).toEqual({ hour: 7, days: [1, 3, 5], endpoint: s.endpoint });
     // Another member's farm sees none of it.
@@ -180,7 +180,7 @@ describe("the scheduled pass: one reminder per person per farm per day", () => {
     helperTablet = push.createSubscription();
     await subscribe(helper, "helper-phone", helperPhone, { hour: 7, days: [1, 2, 3, 4, 5, 6, 7] });
     await subscribe(helper, "helper-tablet", helperTablet, { hour: 7, days: [1, 2, 3, 4, 5, 6, 7] });
-    await subscribe(viewer, "viewer-phone", push.createSubscription(), { hour: 9, days: [1, 2, 3, 4, 5, 6, 7] });
+    await subscribe(visitor, "visitor-phone", push.createSubscription(), { hour: 9, days: [1, 2, 3, 4, 5, 6, 7] });
   });
 
   it("sends nothing before the chosen hour", async () => {
@@ -328,7 +328,7 @@ describe("the scheduled pass: one reminder per person per farm per day", () => {
 
 describe("Send me a test reminder", () => {
   it("sends today's round to this phone now, encrypted and signed, and does not count as the day's reminder", async () => {
-    const m = await signedInMember(ctx.db, { role: "viewer", farmId: owner.farmId, name: "Tester" });
+    const m = await signedInMember(ctx.db, { role: "visitor", farmId: owner.farmId, name: "Tester" });
     const phone = push.createSubscription();
     await subscribe(m, "test-phone", phone);
     const res = await testReminder(memberRequest("/api/reminders/test", m, { method: "POST", json: { deviceId: "test-phone" } }), noCtx);

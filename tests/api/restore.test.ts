@@ -98,6 +98,18 @@ describe("POST /api/backup/restore", () => {
     expect((await again.json()).error.message).toMatch(/already has records.*new, empty farm/);
   });
 
+  it("a backup made before the read-only role was renamed lists that member to invite again as a Visitor", async () => {
+    const old = structuredClone(backup);
+    old.schema = "20261204130000_push_reminders";
+    old.members = old.members.map((m: { role: string }) => (m.role === "visitor" ? { ...m, role: "viewer" } : m));
+    expect(old.members.some((m: { role: string }) => m.role === "viewer")).toBe(true);
+    const res = await restore(await newFarm(), JSON.stringify(old));
+    expect(res.status).toBe(200);
+    const { membersToInvite } = await res.json();
+    expect(membersToInvite).toContainEqual(expect.objectContaining({ email: "juniper@bramblewick.example", role: "visitor" }));
+    expect(JSON.stringify(membersToInvite)).not.toMatch(/viewer/);
+  });
+
   it("refuses a file that is not a Rimebook backup, or one from a newer version, and changes nothing", async () => {
     const target = await newFarm();
     const before = await countRows(target.farmId);

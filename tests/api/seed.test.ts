@@ -21,7 +21,7 @@ describe("demo farm seed", () => {
 
   it("loads one member per role with working demo passwords", async () => {
     const rows = await ctx.db("memberships").join("users", "users.id", "memberships.user_id").where("memberships.farm_id", demoFarm.id).select("role", "email", "password_hash");
-    expect(rows.map((r) => r.role).sort()).toEqual(["grower", "helper", "owner", "viewer"]);
+    expect(rows.map((r) => r.role).sort()).toEqual(["grower", "helper", "owner", "visitor"]);
     const owner = rows.find((r) => r.role === "owner")!;
     expect(await verifyPassword(demoMembers[0].password, owner.password_hash)).toBe(true);
   });

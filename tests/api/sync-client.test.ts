@@ -155,10 +155,10 @@ describe("phone sync against the real handlers", () => {
     phoneA.net.fetch = real;
   }, 120_000);
 
-  it("a refused mutation (a Viewer's check) stays visible, is undone on the phone, and does not block later ones", async () => {
-    // Demoted to Viewer while the phone still thinks Helper: the server decides.
-    const viewer = await signedInMember(db, { role: "viewer", farmId: grower.farmId });
-    const phone = await openPhone(viewer, { role: "helper" });
+  it("a refused mutation (a Visitor's check) stays visible, is undone on the phone, and does not block later ones", async () => {
+    // Demoted to Visitor while the phone still thinks Helper: the server decides.
+    const visitor = await signedInMember(db, { role: "visitor", farmId: grower.farmId });
+    const phone = await openPhone(visitor, { role: "helper" });
     const refused = await recordCheck(check(bagId, 9000));
     await setDigestOptIn(true);
     expect(await phone.db.checks.get(refused.id)).toBeTruthy();
@@ -168,11 +168,11 @@ describe("phone sync against the real handlers", () => {
     const rejected = await phone.db.outbox.where("status").equals("rejected").toArray();
     expect(rejected).toHaveLength(1);
     expect(rejected[0]).toMatchObject({ name: "check.record", error: { code: "forbidden" } });
-    expect(rejected[0].error?.message).toMatch(/Viewer/);
+    expect(rejected[0].error?.message).toMatch(/Visitor/);
     expect(await phone.db.checks.get(refused.id)).toBeUndefined(); // never confirmed: removed from the phone's view
     expect(await db("checks").where({ id: refused.id }).first()).toBeUndefined();
-    expect(storedBoolean((await db("memberships").where({ user_id: viewer.userId }).first("digest_opt_in")).digest_opt_in)).toBe(true);
-    expect((await phone.db.meta.get(META.identity))?.value).toMatchObject({ role: "viewer" }); // the pull corrected the role
+    expect(storedBoolean((await db("memberships").where({ user_id: visitor.userId }).first("digest_opt_in")).digest_opt_in)).toBe(true);
+    expect((await phone.db.meta.get(META.identity))?.value).toMatchObject({ role: "visitor" }); // the pull corrected the role
     expect(await outboxCounts(phone.db)).toMatchObject({ pending: 0, rejected: 1 });
 
     await phone.engine.syncNow(); // still there after another sync: only the person dismisses it

@@ -117,15 +117,15 @@ describe("photo uploads", () => {
     expect((await res.json()).error.code).toBe("too_large");
   });
 
-  it("keeps farms apart and refuses Viewers and strangers", async () => {
+  it("keeps farms apart and refuses Visitors and strangers", async () => {
     const stranger = await signedInMember(db, { role: "owner" });
     const foreignBag = await send(stranger, form({ bagId, file: new Blob([new Uint8Array(JPEG)]) }));
     expect(foreignBag.status).toBe(404);
     const [existing] = await db("photos").select("id");
     const foreignPhoto = await photo(memberRequest(`/api/uploads/${existing.id}`, stranger), { params: Promise.resolve({ id: existing.id }) });
     expect(foreignPhoto.status).toBe(404);
-    const viewer = await signedInMember(db, { role: "viewer", farmId: helper.farmId });
-    expect((await send(viewer, form({ bagId, file: new Blob([new Uint8Array(JPEG)]) }))).status).toBe(403);
+    const visitor = await signedInMember(db, { role: "visitor", farmId: helper.farmId });
+    expect((await send(visitor, form({ bagId, file: new Blob([new Uint8Array(JPEG)]) }))).status).toBe(403);
     expect((await send(null, form({ bagId, file: new Blob([new Uint8Array(JPEG)]) }))).status).toBe(401);
     const missingFile = await send(helper, form({ bagId }));
     expect(missingFile.status).toBe(400);

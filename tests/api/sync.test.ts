@@ -79,15 +79,15 @@ describe("sync routes", () => {
     expect(await db("applied_mutations").where({ id: invalid.id }).first("outcome")).toEqual({ outcome: "rejected" });
   });
 
-  it("checks the role of every mutation on the server: a Viewer is refused, a Helper may record checks but not edit bags", async () => {
-    const viewer = await signedInMember(db, { role: "viewer", farmId: grower.farmId });
+  it("checks the role of every mutation on the server: a Visitor is refused, a Helper may record checks but not edit bags", async () => {
+    const visitor = await signedInMember(db, { role: "visitor", farmId: grower.farmId });
     const helper = await signedInMember(db, { role: "helper", farmId: grower.farmId });
     const check = mutation("check.record", { id: uuid(), bag_id: bagId, checked_at: at, moisture: "damp", mould: "clean", sprouts: "none" });
     const prefs = mutation("member.preferences", { digest_opt_in: true });
-    const v = await pushAs(viewer, [check, prefs]);
+    const v = await pushAs(visitor, [check, prefs]);
     expect(v.body.rejected.map((x: { id: string; error: { code: string } }) => [x.id, x.error.code])).toEqual([[check.id, "forbidden"]]);
     expect(v.body.applied).toEqual([prefs.id]);
-    expect(storedBoolean((await db("memberships").where({ user_id: viewer.userId }).first("digest_opt_in")).digest_opt_in)).toBe(true);
+    expect(storedBoolean((await db("memberships").where({ user_id: visitor.userId }).first("digest_opt_in")).digest_opt_in)).toBe(true);
 
     const h = await pushAs(helper, [check, mutation("bag.update", { id: bagId, patch: { note: "helper edit" } })]);
     expect(h.body.applied).toEqual([check.id]); // refused before, allowed for a Helper: a rejected id may be sent again

@@ -86,12 +86,20 @@ describe("a farm and its team, in the browser", () => {
 
   it("invites a Helper from the Team page; the e-mail arrives in the local mailbox with its link", async () => {
     await ownerPage.goto("/team");
+    // The role ladder in the product's own words, the read-only end included.
+    await ownerPage.getByRole("button", { name: "Send invite" }).waitFor();
+    const roleChoices = (await ownerPage.getByLabel("Role", { exact: true }).locator("option").allTextContents()).map((t) => t.split(" — ")[0]);
+    expect(roleChoices).toEqual(["Owner", "Grower", "Helper", "Visitor"]);
+    expect(await ownerPage.getByText(/viewer/i).count()).toBe(0);
     await ownerPage.getByLabel("E-mail").fill("moss@bramblewick.example");
     await ownerPage.getByLabel("Role", { exact: true }).selectOption("helper");
     await ownerPage.getByRole("button", { name: "Send invite" }).click();
     await ownerPage.getByText("Invite sent to moss@bramblewick.example").waitFor();
     await ownerPage.getByText("Pending invites (1)").waitFor();
     await shoot(ownerPage, "accounts-team-owner");
+    await ownerPage.setViewportSize({ width: 1280, height: 800 });
+    await shoot(ownerPage, "accounts-team-owner-desktop");
+    await ownerPage.setViewportSize({ width: 390, height: 844 });
 
     await ownerPage.goto("/dev/mailbox");
     await ownerPage.getByText("Wren Halloway invited you to Bramblewick Native Nursery on Rimebook").waitFor();

@@ -1,6 +1,6 @@
 // The bag, lot and protocol screens in real Chromium on a phone: a grower sets up a bag from a toxic-seed lot in a
 // food fridge (cautions shown, window from the protocol), the bag reaches the server, an edit lands in the bag's
-// history, the table finds it, a viewer only reads, and a published protocol is copied to the farm's own.
+// history, the table finds it, a visitor only reads, and a published protocol is copied to the farm's own.
 import Database from "better-sqlite3";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
@@ -127,7 +127,7 @@ describe("bags, lots and protocols on a phone", () => {
     await context.close();
   }, 180_000);
 
-  it("shows a viewer the bag without any action that changes it", async () => {
+  it("shows a visitor the bag without any action that changes it", async () => {
     const context = await phoneContext(browser, app.origin);
     const page = await context.newPage();
     await signIn(page, "juniper@bramblewick.example", "viewer-frost-demo");
@@ -136,6 +136,17 @@ describe("bags, lots and protocols on a phone", () => {
     await page.getByText("Your role can read this bag but not change it.").waitFor();
     for (const name of ["Edit", "Pull", "Discard", "Check now"]) await expect(page.getByRole("button", { name, exact: true }).count()).resolves.toBe(0);
     await expect(page.getByRole("link", { name: "New bag" }).count()).resolves.toBe(0);
+    // The demo's read-only member is a Visitor (the role's own word), on the Team page and in Settings.
+    await page.goto("/team");
+    const me = page.getByRole("listitem").filter({ hasText: "Juniper Cole" });
+    await me.getByText("Visitor", { exact: true }).waitFor();
+    expect(await page.getByText(/viewer/i).count()).toBe(0);
+    await shoot(page, "bags-team-visitor");
+    await page.setViewportSize({ width: 1280, height: 800 });
+    await shoot(page, "bags-team-visitor-desktop");
+    await page.setViewportSize({ width: 390, height: 844 });
+    await page.goto("/settings");
+    await page.getByText("you are Visitor").waitFor();
     await context.close();
   }, 120_000);
 

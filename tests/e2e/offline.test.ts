@@ -148,9 +148,9 @@ describe("offline-first phone", () => {
   }, 180_000);
 
   it("a refused change shows in the sync details and is not dropped", async () => {
-    // The viewer's phone still believes it may record checks (role changed while offline).
-    const viewer = await phoneContext(browser, app.origin);
-    const vpage = await viewer.newPage();
+    // The visitor's phone still believes it may record checks (role changed while offline).
+    const visitor = await phoneContext(browser, app.origin);
+    const vpage = await visitor.newPage();
     await signIn(vpage, "juniper@bramblewick.example", "viewer-frost-demo");
     await waitForPill(vpage, /Synced at/);
     const bag = readOne<{ id: string }>("SELECT id FROM bags ORDER BY code LIMIT 1")!;
@@ -171,9 +171,9 @@ describe("offline-first phone", () => {
     }, bag.id);
     await waitForPill(vpage, /not saved/);
     await vpage.getByTestId("sync-pill").click();
-    await vpage.getByTestId("rejected-list").getByText(/Viewer cannot/).waitFor();
+    await vpage.getByTestId("rejected-list").getByText(/Visitor cannot/).waitFor();
     await vpage.screenshot({ path: path.join(ARTIFACTS, "offline-06-refused-details.png") }); // the dialog as the phone shows it
-    await viewer.close();
+    await visitor.close();
   }, 120_000);
 
   it("sign-out warns while work is unsent, then empties the phone store and the farm's caches", async () => {

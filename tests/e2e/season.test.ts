@@ -1,6 +1,6 @@
 // The season screens in real Chromium on a phone: counts with the stepper (a falling running total is refused),
 // a sowing, a logger CSV import that moves a bag's pull window, a bag started from the season plan, a trial's
-// winner made the farm's protocol, a viewer who only reads, and counting with no signal.
+// winner made the farm's protocol, a visitor who only reads, and counting with no signal.
 import fs from "node:fs";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -17,7 +17,7 @@ let page: Page;
 let errors: string[];
 
 const owner = { email: "wren@bramblewick.example", password: "owner-frost-demo" };
-const viewer = { email: "juniper@bramblewick.example", password: "viewer-frost-demo" };
+const visitor = { email: "juniper@bramblewick.example", password: "viewer-frost-demo" };
 const q = <T>(sql: string, ...args: unknown[]) => queryServer<T>(app.databaseFile, sql, ...args);
 
 beforeAll(async () => {
@@ -152,10 +152,10 @@ describe("season screens on a phone", () => {
     expect(errors.filter((e) => !/Failed to fetch|ERR_INTERNET_DISCONNECTED|net::|favicon\.ico/.test(e))).toEqual([]);
   });
 
-  it("a viewer reads the chart and the verdict but gets no import, reading or protocol buttons", async () => {
+  it("a visitor reads the chart and the verdict but gets no import, reading or protocol buttons", async () => {
     const ctx = await phoneContext(browser, app.origin);
     const p = await ctx.newPage();
-    await signIn(p, viewer);
+    await signIn(p, visitor);
     await p.goto("/stores");
     await p.getByRole("link", { name: /Barn fridge/ }).click({ timeout: 60_000 });
     await p.getByRole("heading", { name: "Bags in this store" }).waitFor();

@@ -48,7 +48,7 @@ describe("another person's waiting work on a shared phone", () => {
   });
 
   it("refusals from the server itself (not another person's work) can be tried again by the one signed in", () => {
-    expect(canRetryAs({ error: { code: "forbidden", message: "A Viewer cannot do this." } }, tomas)).toBe(true);
+    expect(canRetryAs({ error: { code: "forbidden", message: "A Visitor cannot do this." } }, tomas)).toBe(true);
     expect(canRetryAs({ error: { code: "other_account", message: "older phone store, no owner recorded" } }, tomas)).toBe(false);
   });
 });

@@ -14,7 +14,7 @@ import { effectsOf } from "@/lib/schemas/mutation-effects";
 const farmId = "farm-1";
 const userId = "user-1";
 
-async function phone(role: "owner" | "grower" | "helper" | "viewer" = "grower") {
+async function phone(role: "owner" | "grower" | "helper" | "visitor" = "grower") {
   const db = new RimebookDB(`unit-${crypto.randomUUID()}`);
   setLocalDb(db);
   await adoptIdentity({ user: { id: userId, name: "Wren", email: "wren@example.test" }, farm: { id: farmId, name: "Bramblewick" }, role }, db);

@@ -12,7 +12,7 @@ export const demoMembers = [
   { key: "owner", name: "Wren Alder", email: "wren@bramblewick.example", role: "owner", password: "owner-frost-demo" },
   { key: "grower", name: "Tomas Reed", email: "tomas@bramblewick.example", role: "grower", password: "grower-frost-demo" },
   { key: "helper", name: "Ada Finch", email: "ada@bramblewick.example", role: "helper", password: "helper-frost-demo" },
-  { key: "viewer", name: "Juniper Cole", email: "juniper@bramblewick.example", role: "viewer", password: "viewer-frost-demo" },
+  { key: "visitor", name: "Juniper Cole", email: "juniper@bramblewick.example", role: "visitor", password: "viewer-frost-demo" },
 ] as const;
 
 export const demoStores = [

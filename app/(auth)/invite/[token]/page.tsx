@@ -14,7 +14,7 @@ const roleSummary = {
   owner: "You will be able to do everything, including managing the team.",
   grower: "You will plan the season and keep lots, protocols, bags and checks.",
   helper: "You will record checks, pulls, sowings and counts.",
-  viewer: "You will see the farm's records.",
+  visitor: "You will see the farm's records.",
 } as const;
 
 export default async function InvitePage({ params }: { params: Promise<{ token: string }> }) {
