@@ -1,8 +1,7 @@
 import fs from "node:fs";
-import { NextResponse } from "next/server";
 import { AppError } from "@/lib/errors";
 import { requireMember } from "@/lib/server/auth";
-import { route } from "@/lib/server/http";
+import { jsonAnswer, route } from "@/lib/server/http";
 
 export const dynamic = "force-dynamic";
 
@@ -21,5 +20,6 @@ function floorBody(): unknown {
 export const GET = route(async (req) => {
   const body = floorBody();
   if (new URL(req.url).searchParams.get("session")) await requireMember(req);
-  return NextResponse.json(body, { headers: { "cache-control": "no-store" } });
+  // Encoded as the pull encodes its answer (gzip when accepted), so the two differ only by the pull's own work.
+  return jsonAnswer(req, body, { headers: { "cache-control": "no-store" } });
 });
