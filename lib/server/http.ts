@@ -1,6 +1,4 @@
 import "server-only";
-import { promisify } from "node:util";
-import { gzip } from "node:zlib";
 import { NextResponse } from "next/server";
 import { ZodError, type ZodType, type z } from "zod";
 import { AppError } from "@/lib/errors";
@@ -134,39 +132,4 @@ export function route<C = unknown>(handler: Handler<C>): Handler<C> {
       return errorResponse(err);
     }
   };
-}
-
-const gzipAsync = promisify(gzip);
-
-/** Whether an Accept-Encoding header allows gzip (`gzip` or `*`, not refused with q=0). */
-export function acceptsGzip(header: string | null): boolean {
-  let star = false;
-  for (const part of (header ?? "").toLowerCase().split(",")) {
-    const [name, ...params] = part.trim().split(";");
-    const q = params.map((p) => p.trim()).find((p) => p.startsWith("q="));
-    const allowed = !q || Number(q.slice(2)) > 0;
-    if (name.trim() === "gzip") return allowed;
-    if (name.trim() === "*") star = allowed;
-  }
-  return star;
-}
-
-/**
- * A JSON answer, gzip-compressed when the caller accepts it: a pull page is tens of kB of repetitive JSON that a
- * phone on a weak link fetches page after page. Compressed off the event loop (zlib's thread pool); the JSON is
- * byte for byte what NextResponse.json would send.
- */
-export async function jsonAnswer(req: Request, body: unknown, init: { status?: number; headers?: Record<string, string> } = {}): Promise<NextResponse> {
-  const json = Buffer.from(JSON.stringify(body));
-  const headers = new Headers(init.headers);
-  headers.set("content-type", "application/json");
-  headers.append("vary", "Accept-Encoding");
-  if (!acceptsGzip(req.headers.get("accept-encoding"))) {
-    headers.set("content-length", String(json.length));
-    return new NextResponse(json, { status: init.status ?? 200, headers });
-  }
-  const packed = await gzipAsync(json);
-  headers.set("content-encoding", "gzip");
-  headers.set("content-length", String(packed.length));
-  return new NextResponse(packed, { status: init.status ?? 200, headers });
 }

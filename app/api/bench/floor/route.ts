@@ -1,7 +1,8 @@
 import fs from "node:fs";
+import { NextResponse } from "next/server";
 import { AppError } from "@/lib/errors";
 import { requireMember } from "@/lib/server/auth";
-import { jsonAnswer, route } from "@/lib/server/http";
+import { route } from "@/lib/server/http";
 
 export const dynamic = "force-dynamic";
 
@@ -20,6 +21,5 @@ function floorBody(): unknown {
 export const GET = route(async (req) => {
   const body = floorBody();
   if (new URL(req.url).searchParams.get("session")) await requireMember(req);
-  // Encoded as the pull encodes its answer (gzip when accepted), so the two differ only by the pull's own work.
-  return jsonAnswer(req, body, { headers: { "cache-control": "no-store" } });
+  return NextResponse.json(body, { headers: { "cache-control": "no-store" } });
 });

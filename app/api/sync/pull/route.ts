@@ -1,7 +1,8 @@
+import { NextResponse } from "next/server";
 import { PullQuery } from "@/lib/schemas/mutations";
 import { requireMember, withSessionCookie } from "@/lib/server/auth";
 import { getDb } from "@/lib/server/db";
-import { jsonAnswer, readQuery, route } from "@/lib/server/http";
+import { readQuery, route } from "@/lib/server/http";
 import { pullChanges } from "@/lib/server/sync/pull";
 
 export const dynamic = "force-dynamic";
@@ -11,5 +12,5 @@ export const GET = route(async (req) => {
   const member = await requireMember(req);
   const { since, limit } = readQuery(req, PullQuery);
   const page = await pullChanges(getDb(), member.farmId, since, limit);
-  return withSessionCookie(await jsonAnswer(req, { ...page, role: member.role }, { headers: { "cache-control": "no-store" } }), member);
+  return withSessionCookie(NextResponse.json({ ...page, role: member.role }, { headers: { "cache-control": "no-store" } }), member);
 });
