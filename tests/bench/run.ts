@@ -9,6 +9,7 @@ import path from "node:path";
 import http from "node:http";
 import zlib from "node:zlib";
 import { randomUUID } from "node:crypto";
+import { spawn, spawnSync } from "node:child_process";
 import { performance } from "node:perf_hooks";
 // The phone store's IndexedDB for the Today benchmark (in memory).
 import "fake-indexeddb/auto";
@@ -39,10 +40,17 @@ const median = (xs: number[]) => {
   const mid = Math.floor(s.length / 2);
   return s.length % 2 ? s[mid] : (s[mid - 1] + s[mid]) / 2;
 };
+/** One sample per call: never start two samples together (a Promise.all over synchronous work times them all). */
 const time = async (fn: () => unknown | Promise<unknown>) => {
   const t = performance.now();
   await fn();
   return performance.now() - t;
+};
+/** `n` samples of `fn`, one after the other. */
+const samples = async (n: number, fn: () => unknown | Promise<unknown>) => {
+  const out: number[] = [];
+  for (let i = 0; i < n; i++) out.push(await time(fn));
+  return out;
 };
 
 // ---------------------------------------------------------------------------------------------------------
@@ -73,43 +81,88 @@ async function benchPush() {
   const mutations = Array.from({ length: CHECKS }, (_, i) =>
     m("check.record", { id: randomUUID(), bag_id: bagId, checked_at: new Date(Date.UTC(2026, 10, 1) + i * 60_000).toISOString(), moisture: "damp", mould: "clean", sprouts: "none", actions: [] }),
   );
+  const counts = async () => {
+    const names = (await db.raw("SELECT name FROM sqlite_master WHERE type='table' AND name NOT LIKE 'sqlite_%' AND name NOT LIKE 'knex_%'")) as { name: string }[];
+    const out: Record<string, number> = {};
+    for (const { name } of names) out[name] = Number((await db(name).count({ n: "*" }))[0].n);
+    return out;
+  };
+  const before = await counts();
+  const seqBefore = Number((await db("farms").where({ id: owner.farmId }).first("seq")).seq);
   const pushMs = await time(async () => {
     for (let i = 0; i < mutations.length; i += 1000) await push(mutations.slice(i, i + 1000));
   });
+  const after = await counts();
+  const seqAfter = Number((await db("farms").where({ id: owner.farmId }).first("seq")).seq);
   const stored = await db("checks").where({ bag_id: bagId }).select();
   if (stored.length !== CHECKS) throw new Error(`expected ${CHECKS} checks stored, found ${stored.length}`);
+  const ids = new Set<string>(mutations.map((x) => x.id));
+  const applied = (await db("applied_mutations").select()).filter((r: { id: string }) => ids.has(r.id));
+  if (applied.length !== CHECKS) throw new Error(`expected ${CHECKS} applied-mutation records, found ${applied.length}`);
+  // What one check mutation writes, so the fair floor below writes the same (anything else would be a lie).
+  const grew = Object.entries(after).filter(([t, n]) => n !== before[t]).map(([t, n]) => `${t} +${n - before[t]}`);
+  console.log(`  rows written by the push: ${grew.join(", ")}; farm seq +${seqAfter - seqBefore}`);
+  const unexpected = Object.entries(after).filter(([t, n]) => n !== before[t] && t !== "checks" && t !== "applied_mutations");
+  if (unexpected.length) notes.push(`push: the check mutations also wrote ${unexpected.map(([t]) => t).join(", ")}, which the floors do not`);
 
-  // Baseline: the very rows the push stored, inserted with one prepared statement in one transaction into a
-  // fresh file with the same migrations and pragmas (WAL, synchronous NORMAL, foreign keys on).
-  // Every other row (farm, user, lot, bag, protocols…) is copied first, untimed, so the checks' foreign keys hold.
-  const tables = (await db.raw("SELECT name FROM sqlite_master WHERE type='table' AND name NOT LIKE 'sqlite_%' AND name NOT LIKE 'knex_%' AND name <> 'checks'")) as { name: string }[];
+  // Floors: the very rows the push stored, inserted with prepared statements in one transaction into a fresh
+  // file with the same migrations and pragmas (WAL, synchronous NORMAL, foreign keys on). Every other row (farm,
+  // user, lot, bag, protocols…) is copied first, untimed, so the foreign keys hold.
+  //   fair floor: every row a check mutation writes (the check, its applied_mutations record, the farm's seq bump)
+  //   checks only: the old floor, the check rows alone
+  const tables = (await db.raw("SELECT name FROM sqlite_master WHERE type='table' AND name NOT LIKE 'sqlite_%' AND name NOT LIKE 'knex_%'")) as { name: string }[];
   const parents: Record<string, Record<string, unknown>[]> = {};
   for (const { name } of tables) parents[name] = await db(name).select();
+  const storedIds = new Set(stored.map((c: { id: string }) => c.id));
+  parents.checks = parents.checks.filter((r) => !storedIds.has(String(r.id)));
+  parents.applied_mutations = parents.applied_mutations.filter((r) => !ids.has(String(r.id)));
   await db.destroy();
-  const baseFile = path.join(TMP, "raw.sqlite");
-  const base = await useDatabase(`file:${baseFile}`);
-  await base.migrate.latest();
-  await base.destroy();
   const Database = (await import("better-sqlite3")).default;
-  const raw = new Database(baseFile);
-  raw.pragma("journal_mode = WAL");
-  raw.pragma("synchronous = NORMAL");
-  raw.pragma("foreign_keys = ON");
-  const insertAll = (table: string, list: Record<string, unknown>[]) => {
-    if (!list.length) return;
-    const cols = Object.keys(list[0]);
-    const stmt = raw.prepare(`INSERT INTO ${table} (${cols.map((c) => `"${c}"`).join(",")}) VALUES (${cols.map(() => "?").join(",")})`);
+  const freshRaw = async (name: string) => {
+    const file = path.join(TMP, name);
+    const base = await useDatabase(`file:${file}`);
+    await base.migrate.latest();
+    await base.destroy();
+    const raw = new Database(file);
+    raw.pragma("journal_mode = WAL");
+    raw.pragma("synchronous = NORMAL");
+    const prepare = (table: string, list: Record<string, unknown>[]) => {
+      const cols = Object.keys(list[0]);
+      const stmt = raw.prepare(`INSERT INTO ${table} (${cols.map((c) => `"${c}"`).join(",")}) VALUES (${cols.map(() => "?").join(",")})`);
+      return (r: Record<string, unknown>) => stmt.run(cols.map((c) => r[c] as never));
+    };
+    raw.pragma("foreign_keys = OFF");
+    // Copy order does not matter with foreign keys off; the farm's seq is set back to before the push.
     raw.transaction(() => {
-      for (const r of list) stmt.run(cols.map((c) => r[c] as never));
+      for (const [t, list] of Object.entries(parents)) if (list.length) list.forEach(prepare(t, list));
+      raw.prepare("UPDATE farms SET seq = ? WHERE id = ?").run(seqBefore, owner.farmId);
     })();
+    raw.pragma("foreign_keys = ON");
+    return { raw, prepare };
   };
-  raw.pragma("foreign_keys = OFF");
-  for (const [t, list] of Object.entries(parents)) insertAll(t, list);
-  raw.pragma("foreign_keys = ON");
-  const rawMs = await time(() => insertAll("checks", stored));
-  raw.close();
-  record({ bench: "sync push", measure: `apply ${CHECKS.toLocaleString("en")} check mutations (10 pushes of 1,000)`, value: pushMs, unit: "ms", baseline: "raw better-sqlite3 insert of the same rows, one transaction", baselineValue: rawMs });
-  record({ bench: "sync push", measure: "per check mutation", value: (pushMs * 1000) / CHECKS, unit: "µs", baseline: "raw insert per row", baselineValue: (rawMs * 1000) / CHECKS });
+  const onlyChecks = await freshRaw("raw-checks.sqlite");
+  const insertCheck = onlyChecks.prepare("checks", stored);
+  const rawMs = await time(() => onlyChecks.raw.transaction(() => stored.forEach(insertCheck))());
+  onlyChecks.raw.close();
+  const fair = await freshRaw("raw-fair.sqlite");
+  const check = fair.prepare("checks", stored);
+  const record_ = fair.prepare("applied_mutations", applied);
+  const bump = fair.raw.prepare("UPDATE farms SET seq = seq + 1 WHERE id = ? RETURNING seq");
+  const fairMs = await time(() =>
+    fair.raw.transaction(() => {
+      for (let i = 0; i < stored.length; i++) {
+        bump.get(owner.farmId);
+        check(stored[i]);
+        record_(applied[i]);
+      }
+    })(),
+  );
+  fair.raw.close();
+  const what = `apply ${CHECKS.toLocaleString("en")} check mutations (10 pushes of 1,000)`;
+  const fairName = "fair floor: each mutation's check + applied-mutation record + farm seq bump, raw better-sqlite3, one transaction";
+  record({ bench: "sync push", measure: what, value: pushMs, unit: "ms", baseline: fairName, baselineValue: fairMs });
+  record({ bench: "sync push", measure: "per check mutation", value: (pushMs * 1000) / CHECKS, unit: "µs", baseline: "fair floor per mutation", baselineValue: (fairMs * 1000) / CHECKS });
+  record({ bench: "sync push", measure: "per check mutation", value: (pushMs * 1000) / CHECKS, unit: "µs", baseline: "old floor: raw insert of the check rows only", baselineValue: (rawMs * 1000) / CHECKS });
 }
 
 // ---------------------------------------------------------------------------------------------------------
@@ -118,12 +171,14 @@ async function benchPush() {
 type Server = Awaited<ReturnType<typeof import("../e2e/support/server").startApp>>;
 let server: Server | null = null;
 let cookie = "";
+const FLOOR_FILE = path.join(TMP, "pull-floor.json");
 
 async function getServer(): Promise<Server> {
   if (server) return server;
   const { startApp } = await import("../e2e/support/server");
   console.log("  (starting the production build; builds .next-e2e first if it is missing or stale)");
-  server = await startApp({ name: "bench" });
+  // The framework floor route (app/api/bench/floor) answers only when the server is started with this file.
+  server = await startApp({ name: "bench", env: { RIMEBOOK_BENCH_FLOOR_FILE: FLOOR_FILE } });
   const res = await fetch(`${server.origin}/api/auth/sign-up`, {
     method: "POST",
     headers: { "content-type": "application/json", origin: server.origin },
@@ -144,7 +199,46 @@ async function httpPush(app: Server, mutations: unknown[]) {
   return res.json();
 }
 
-// 2. Pull under autocannon vs a bare node:http server returning the same JSON.
+// 2. Pull under autocannon (50 connections, Accept-Encoding: gzip as phones send it), each figure beside floors
+// served by their own processes, never beside the load generator:
+//   framework floor: a route handler of the same build answering the same JSON with no database (app/api/bench/floor)
+//   session floor: the same route with the session check only
+//   bare node:http: a plain server in its own process, serialising the same JSON (and gzipping it when asked)
+// Throughput swings on a shared machine, so each run also reports the server process's CPU time per request.
+
+const CLK_TCK = Number(spawnSync("getconf", ["CLK_TCK"], { encoding: "utf8" }).stdout.trim()) || 100;
+/** CPU seconds (user + system) the process has used so far, from /proc (Linux). */
+function cpuSeconds(pid: number): number {
+  const stat = fs.readFileSync(`/proc/${pid}/stat`, "utf8");
+  const fields = stat.slice(stat.lastIndexOf(")") + 2).split(" ");
+  return (Number(fields[11]) + Number(fields[12])) / CLK_TCK;
+}
+
+const BARE_SERVER = `
+const http = require("node:http"), zlib = require("node:zlib"), fs = require("node:fs");
+const body = JSON.parse(fs.readFileSync(process.argv[1], "utf8"));
+const server = http.createServer((req, res) => {
+  const json = Buffer.from(JSON.stringify(body));
+  if (/\\bgzip\\b/.test(req.headers["accept-encoding"] || "")) {
+    const gz = zlib.gzipSync(json);
+    res.writeHead(200, { "content-type": "application/json", "content-encoding": "gzip", vary: "Accept-Encoding", "content-length": gz.length });
+    res.end(gz);
+  } else {
+    res.writeHead(200, { "content-type": "application/json", "content-length": json.length });
+    res.end(json);
+  }
+});
+server.listen(0, "127.0.0.1", () => process.stdout.write(String(server.address().port) + "\\n"));
+`;
+
+async function startBare(file: string): Promise<{ port: number; pid: number; stop: () => void }> {
+  const child = spawn(process.execPath, ["-e", BARE_SERVER, file], { stdio: ["ignore", "pipe", "inherit"] });
+  const port = await new Promise<number>((resolve, reject) => {
+    child.stdout!.once("data", (d: Buffer) => resolve(Number(String(d).trim())));
+    child.once("exit", (code) => reject(new Error(`bare server exited (${code})`)));
+  });
+  return { port, pid: child.pid!, stop: () => child.kill("SIGTERM") };
+}
 
 async function benchPull() {
   const app = await getServer();
@@ -160,26 +254,48 @@ async function benchPull() {
   if (!sample.ok) throw new Error(`pull ${sample.status}`);
   const body = await sample.text();
   const changes = (JSON.parse(body) as { changes: unknown[] }).changes.length;
-
-  const bare = http.createServer((_req, res) => {
-    res.writeHead(200, { "content-type": "application/json", "content-length": Buffer.byteLength(body) });
-    res.end(body);
+  fs.writeFileSync(FLOOR_FILE, body);
+  // The bytes on the wire when the phone asks for gzip (whoever compresses them: the route or the framework).
+  const onWire = await new Promise<{ bytes: number; encoding: string }>((resolve, reject) => {
+    http.get(url, { headers: { cookie, "accept-encoding": "gzip" } }, (res) => {
+      let bytes = 0;
+      res.on("data", (d: Buffer) => (bytes += d.length));
+      res.on("end", () => resolve({ bytes, encoding: String(res.headers["content-encoding"] ?? "identity") }));
+    }).on("error", reject);
   });
-  await new Promise<void>((r) => bare.listen(0, "127.0.0.1", () => r()));
-  const barePort = (bare.address() as { port: number }).port;
+  const floorCheck = await fetch(`${app.origin}/api/bench/floor?session=1`, { headers: { cookie } });
+  if (!floorCheck.ok || JSON.stringify(await floorCheck.json()) !== JSON.stringify(JSON.parse(body))) throw new Error(`the framework floor did not answer the pull's JSON (${floorCheck.status})`);
 
+  const bare = await startBare(FLOOR_FILE);
   const autocannon = (await import("autocannon")).default;
-  const load = (target: string, headers: Record<string, string>) =>
-    autocannon({ url: target, connections: 50, duration: Number(process.env.BENCH_SECONDS ?? 10), headers });
-  const appRun = await load(url, { cookie });
-  const bareRun = await load(`http://127.0.0.1:${barePort}/`, {});
-  bare.close();
-  if (appRun.non2xx) failures.push(`pull: ${appRun.non2xx} answers were not 2xx under load`);
-  if (appRun.errors) notes.push(`pull: ${appRun.errors} requests timed out (autocannon's 10 s) under load`);
-  const what = `GET /api/sync/pull (${changes} changes, ${(body.length / 1024).toFixed(0)} kB), 50 connections`;
-  record({ bench: "sync pull", measure: `${what}: requests/s`, value: appRun.requests.average, unit: "req/s", baseline: "bare node:http, same JSON", baselineValue: bareRun.requests.average, higherIsBetter: true });
-  record({ bench: "sync pull", measure: "latency p50", value: appRun.latency.p50, unit: "ms", baseline: "bare node:http p50", baselineValue: Math.max(bareRun.latency.p50, 0.5) });
-  record({ bench: "sync pull", measure: "latency p99", value: appRun.latency.p99, unit: "ms", baseline: "bare node:http p99", baselineValue: Math.max(bareRun.latency.p99, 0.5) });
+  const seconds = Number(process.env.BENCH_SECONDS ?? 10);
+  const gzip = { "accept-encoding": "gzip" };
+  const load = async (target: string, headers: Record<string, string>, pid: number) => {
+    const cpu0 = cpuSeconds(pid);
+    const run = await autocannon({ url: target, connections: 50, duration: seconds, headers });
+    const cpuMs = ((cpuSeconds(pid) - cpu0) * 1000) / Math.max(run.requests.total, 1);
+    if (run.non2xx) failures.push(`pull: ${run.non2xx} answers of ${target} were not 2xx under load`);
+    if (run.errors) notes.push(`pull: ${run.errors} requests to ${target} timed out (autocannon's 10 s) under load`);
+    return { ...run, cpuMs };
+  };
+  const appPid = app.process.pid!;
+  const appRun = await load(url, { cookie, ...gzip }, appPid);
+  const plainRun = await load(url, { cookie }, appPid);
+  const floorRun = await load(`${app.origin}/api/bench/floor`, gzip, appPid);
+  const sessionRun = await load(`${app.origin}/api/bench/floor?session=1`, { cookie, ...gzip }, appPid);
+  const bareRun = await load(`http://127.0.0.1:${bare.port}/`, gzip, bare.pid);
+  bare.stop();
+  const what = `GET /api/sync/pull (${changes} changes, ${(body.length / 1024).toFixed(0)} kB JSON, ${(onWire.bytes / 1024).toFixed(1)} kB on the wire as ${onWire.encoding}), 50 connections, Accept-Encoding: gzip`;
+  const floor = "framework floor: Next route handler, same JSON, no database";
+  record({ bench: "sync pull", measure: `${what}: CPU per request`, value: appRun.cpuMs, unit: "ms", baseline: floor, baselineValue: floorRun.cpuMs });
+  record({ bench: "sync pull", measure: "requests/s", value: appRun.requests.average, unit: "req/s", baseline: floor, baselineValue: floorRun.requests.average, higherIsBetter: true });
+  record({ bench: "sync pull", measure: "latency p50", value: appRun.latency.p50, unit: "ms", baseline: `${floor}, p50`, baselineValue: Math.max(floorRun.latency.p50, 0.5) });
+  record({ bench: "sync pull", measure: "latency p99", value: appRun.latency.p99, unit: "ms", baseline: `${floor}, p99`, baselineValue: Math.max(floorRun.latency.p99, 0.5) });
+  record({ bench: "sync pull", measure: "CPU per request", value: appRun.cpuMs, unit: "ms", baseline: "session floor: the same route with the session check only", baselineValue: sessionRun.cpuMs });
+  record({ bench: "sync pull", measure: "the same pull without Accept-Encoding: CPU per request", value: plainRun.cpuMs, unit: "ms", baseline: "the pull with gzip", baselineValue: appRun.cpuMs });
+  record({ bench: "sync pull", measure: "the same pull without Accept-Encoding: requests/s", value: plainRun.requests.average, unit: "req/s", baseline: "the pull with gzip", baselineValue: appRun.requests.average, higherIsBetter: true });
+  record({ bench: "sync pull", measure: "framework floor: CPU per request", value: floorRun.cpuMs, unit: "ms", baseline: "bare node:http in its own process, same JSON serialised and gzipped per request", baselineValue: bareRun.cpuMs });
+  record({ bench: "sync pull", measure: "framework floor: requests/s", value: floorRun.requests.average, unit: "req/s", baseline: "bare node:http, requests/s", baselineValue: bareRun.requests.average, higherIsBetter: true });
 }
 
 // 3. First-load JS per route (gzip) vs the framework floor (the built-in not-found page of the same build).
@@ -347,10 +463,11 @@ async function benchToday() {
   const rows = await loadFarmRows(phone, "in_cold");
   const live = rows.bags.filter((b) => !b.deleted_at && b.start_date && !b.pulled_on && !b.sown_on && !b.discarded_on);
   const lastChecks = await loadLastChecks(phone, live.map((b) => b.id));
-  const domain = median(await Promise.all([0, 1, 2, 3, 4].map(() => time(() => buildRoundFromRows(rows, lastChecks, today, cadenceFor(7))))));
+  // One round per sample (five rounds started together inside Promise.all would each time several rounds).
+  const domain = median(await samples(5, () => buildRoundFromRows(rows, lastChecks, today, cadenceFor(7))));
   // What the effective windows cost: the same round with the stores' readings left out (every window as planned).
   const noReadings = { ...rows, readings: [] };
-  const planned = median(await Promise.all([0, 1, 2, 3, 4].map(() => time(() => buildRoundFromRows(noReadings, lastChecks, today, cadenceFor(7))))));
+  const planned = median(await samples(5, () => buildRoundFromRows(noReadings, lastChecks, today, cadenceFor(7))));
   const moved = buildBagRows(rows, today).filter((r) => r.lostColdDays > 0).length;
   // Baselines: a plain scan of the same rows (read them all, one pass comparing dates), and reading the table alone.
   const readOnly = median([await time(() => phone.bags.toArray()), await time(() => phone.bags.toArray()), await time(() => phone.bags.toArray())]);
@@ -369,14 +486,10 @@ async function benchToday() {
   // How much of the total is the per-bag look-up of last checks: the same answer from one read of the table.
   const perBag = median([await time(() => loadLastChecks(phone, live.map((b) => b.id))), await time(() => loadLastChecks(phone, live.map((b) => b.id)))]);
   const onePass = median(
-    await Promise.all(
-      [0, 1].map(() =>
-        time(async () => {
-          const last = new Map<string, { checked_at: string }>();
-          for (const c of await phone.checks.toArray()) if (!c.deleted_at && (last.get(c.bag_id)?.checked_at ?? "") < c.checked_at) last.set(c.bag_id, c);
-        }),
-      ),
-    ),
+    await samples(2, async () => {
+      const last = new Map<string, { checked_at: string }>();
+      for (const c of await phone.checks.toArray()) if (!c.deleted_at && (last.get(c.bag_id)?.checked_at ?? "") < c.checked_at) last.set(c.bag_id, c);
+    }),
   );
   phone.close();
   console.log(`  ${due} of ${BAGS} bags due today; plain scan saw ${scanned} bags in the cold; ${moved} windows moved by ${rows.readings.length.toLocaleString("en")} readings`);

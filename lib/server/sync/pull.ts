@@ -68,16 +68,19 @@ async function readPage(db: Knex.Transaction, farmId: string, since: number, lim
   // A cursor ahead of the server (restored database): start again from the beginning.
   const from = since > head ? 0 : since;
 
+  // One row more than a page per table: a table that fills the page exactly is then known to end there, so the
+  // answer is not marked truncated and the phone is not sent an empty extra page.
   const perTable = await Promise.all(
     pullTables.map(async (table) => {
-      const rows: Record<string, unknown>[] = await selectFor(db, table, farmId).where(seqColumn(table), ">", from).orderBy(seqColumn(table)).limit(limit);
+      const rows: Record<string, unknown>[] = await selectFor(db, table, farmId).where(seqColumn(table), ">", from).orderBy(seqColumn(table)).limit(limit + 1);
       return rows.map((r) => ({ table, r, seq: Number(r.seq) }));
     }),
   );
   const merged = perTable.flat().sort((a, b) => a.seq - b.seq);
-  const truncated = merged.length > limit || perTable.some((rows) => rows.length === limit);
+  const truncated = merged.length > limit;
   let page = merged.slice(0, limit);
   let cursor = page.length ? page[page.length - 1].seq : from;
+  let more = false;
 
   if (truncated) {
     // Rows written by one change share a seq: never split them across pages.
@@ -89,10 +92,12 @@ async function readPage(db: Knex.Transaction, farmId: string, since: number, lim
       }),
     );
     page = page.concat(rest.flat().filter((p) => !taken.has(`${p.table}:${String(p.r.id)}`)));
+    // More only if a row after the cursor is known, or a table was cut off at the cursor's seq itself (its rows
+    // after that seq were not read). Otherwise the rows that overflowed all shared the cursor's seq.
+    more = merged.some((p) => p.seq > cursor) || perTable.some((rows) => rows.length > limit && rows[rows.length - 1].seq === cursor);
   }
   // Everything up to the farm's counter has been seen (some changes write no pulled row).
-  if (!truncated) cursor = Math.max(head, cursor);
-  const more = truncated;
+  if (!more) cursor = Math.max(head, cursor);
   const { seq: _seq, ...settings } = farm ?? { id: farmId, name: "", seq: 0 };
   return { cursor, changes: page.map((p) => present(p.table, p.r)), more, head, farm: settings as FarmSettingsRow };
 }
