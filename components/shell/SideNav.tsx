@@ -14,8 +14,8 @@ const item = (active: boolean) =>
 
 function Group({ title, glyph, links, path }: { title: string; glyph: React.ReactNode; links: NavLink[]; path: string }) {
   return (
-    <li className="pt-2">
-      <p className="flex items-center gap-2 px-3 pb-1 text-label font-semibold uppercase tracking-wide text-ink-soft">
+    <li className="pt-1">
+      <p className="flex items-center gap-2 px-3 text-label font-semibold uppercase tracking-wide text-ink-soft">
         {glyph}
         {title}
       </p>
@@ -39,7 +39,7 @@ export function SideNav() {
   const path = usePathname() ?? "";
   const place = placeOf(path);
   return (
-    <nav aria-label="Main" className="no-print fixed bottom-0 left-0 top-[3.8125rem] z-20 hidden w-60 overflow-y-auto border-r border-rime-200 bg-rime-50 px-3 py-3 lg:block">
+    <nav aria-label="Main" className="no-print fixed bottom-0 left-0 top-[3.8125rem] z-20 hidden w-60 overflow-y-auto border-r border-rime-200 bg-rime-50 px-3 py-2 lg:block">
       <ul>
         <li>
           <Link href="/today" className={item(place === "today")} aria-current={place === "today" ? "page" : undefined}>
@@ -62,8 +62,8 @@ export function SideNav() {
         <Group title="Season" glyph={<SeasonGlyph className="h-5 w-5" />} links={seasonLinks} path={path} />
         <Group title="Farm" glyph={<FarmGlyph className="h-5 w-5" />} links={farmLinks} path={path} />
       </ul>
-      <ul className="mt-2 border-t border-rime-200">
-        <SignOutItem className="px-3 pt-1" />
+      <ul className="mt-1 border-t border-rime-200">
+        <SignOutItem className="px-3" />
       </ul>
     </nav>
   );

@@ -191,12 +191,13 @@ function SowGroup({ items }: { items: SowItem<PulledBagRow>[] }) {
       </h2>
       <ul className="space-y-2">
         {items.map((item) => {
-          const urgent = item.isLate || item.sprouted;
+          // Late is trouble (✕, ember); roots showing but not yet late is work to do now (▲, wheat).
+          const look = item.isLate ? cardLook.trouble : item.sprouted ? cardLook.act : cardLook.routine;
           return (
             <li key={item.bag.id}>
               <Link
                 href={`/sowing?bag=${encodeURIComponent(item.bag.id)}`}
-                className={`block min-h-tap rounded-card border-2 bg-paper p-3 shadow-sm hover:bg-rime-50 ${urgent ? "border-ember-600" : "border-rime-200"}`}
+                className={`block min-h-tap rounded-card border-2 bg-paper p-3 shadow-sm hover:bg-rime-50 ${look.frame}`}
                 data-testid="sow-bag"
               >
                 <span className="flex items-center justify-between gap-2">
@@ -204,8 +205,8 @@ function SowGroup({ items }: { items: SowItem<PulledBagRow>[] }) {
                   <StateBadge state="pulled" />
                 </span>
                 <span className="mt-1 block text-body text-ink">{item.bag.species}</span>
-                <span className={`mt-1 block text-label font-semibold ${urgent ? "text-ember-700" : "text-ink-soft"}`}>
-                  {urgent ? <span aria-hidden="true">▲ </span> : null}
+                <span className={`mt-1 block text-label font-semibold ${look.text}`}>
+                  {look.mark ? <span aria-hidden="true">{look.mark}</span> : null}
                   {item.note}
                 </span>
               </Link>

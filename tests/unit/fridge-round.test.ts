@@ -1,5 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { buildRoundFromRows, cadenceFor, dayOfTimestamp, roundChipTones, summarizeRound, urgentChipKinds, type LastCheckRow } from "@/lib/domain/rows/round-input";
+import { chooseSheetSteps } from "@/lib/domain/check-choice";
+import { allGoodFindings } from "@/lib/schemas/check";
+import { buildRoundFromRows, cadenceFor, chipKindOf, dayOfTimestamp, roundChipTones, summarizeRound, urgentChipKinds, type LastCheckRow } from "@/lib/domain/rows/round-input";
 import { starterProtocols } from "@/lib/domain/starter-protocols";
 import type { Bag } from "@/lib/schemas/bag";
 import type { Lot } from "@/lib/schemas/lot";
@@ -73,13 +75,20 @@ describe("today's round from the phone store", () => {
     expect(tomorrow.items.find((i) => i.bag.code === "ELDER")?.next).toMatchObject({ reason: "move_to_next_phase", on: "2026-01-21" });
   });
 
-  it("summarizes counts for the chips, a follow-up after mould apart and urgent; trouble, a decision and routine each in its own tone", () => {
+  it("summarizes counts for the chips, a follow-up after mould apart and urgent; work now, a decision and routine each in its own tone", () => {
     expect(summarizeRound(round)).toEqual([
-      { kind: "mould_follow_up", label: "Mould spots", count: 1, urgent: true, tone: "trouble" },
-      { kind: "overdue", label: "Past latest pull", count: 1, urgent: true, tone: "trouble" },
+      { kind: "mould_follow_up", label: "Mould spots", count: 1, urgent: true, tone: "act" },
+      { kind: "overdue", label: "Past latest pull", count: 1, urgent: true, tone: "act" },
       { kind: "window_daily", label: "Window open", count: 1, urgent: false, tone: "decide" },
       { kind: "weekly", label: "Routine", count: 1, urgent: false, tone: "routine" },
     ]);
+  });
+
+  it("each chip has the tone of the cards it counts (the check sheet's own rule)", () => {
+    for (const item of round.items) {
+      const card = chooseSheetSteps({ state: item.state, findings: allGoodFindings, entered: false, lastCheck: item.bag.lastCheck ?? null });
+      expect({ code: item.bag.code, tone: roundChipTones[chipKindOf(item)] }).toEqual({ code: item.bag.code, tone: card.tone });
+    }
   });
 
   it("a window opening is a decision, not trouble: it does not count as needing action first", () => {

@@ -96,12 +96,13 @@ export const roundChipLabels: Record<RoundChipKind, string> = {
   weekly: "Routine",
 };
 
-/** Each chip's tone, the same four looks as the cards and the check sheet: trouble (mould, past the latest pull),
- *  work to do now (roots showing, wet bags), a decision (a window opening or open), routine. */
+/** Each chip's tone, the same as the cards it counts (chooseSheetSteps): trouble (mould spreading), work to do now
+ *  (past the latest pull, roots showing, a follow-up after mould spots or a wet bag), a decision (a window opening or
+ *  open), routine. */
 export const roundChipTones: Record<RoundChipKind, Exclude<SheetTone, "closed">> = {
   discard_now: "trouble",
-  mould_follow_up: "trouble",
-  overdue: "trouble",
+  mould_follow_up: "act",
+  overdue: "act",
   pull_now: "act",
   follow_up: "act",
   move_to_next_phase: "act",
