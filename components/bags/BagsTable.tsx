@@ -58,7 +58,8 @@ function ChipRow({ label, children }: { label: string; children: React.ReactNode
   return (
     <div role="group" aria-label={label} className="space-y-1">
       <p className="text-label font-semibold text-ink-soft">{label}</p>
-      <div className="-mx-4 flex gap-2 overflow-x-auto px-4 pb-1">{children}</div>
+      {/* Chips wrap onto a second line rather than scroll: none is ever hidden off the edge. */}
+      <div className="flex flex-wrap gap-2 pb-1">{children}</div>
     </div>
   );
 }

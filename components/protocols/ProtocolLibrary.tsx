@@ -47,7 +47,7 @@ export function ProtocolLibrary() {
         <span className="sr-only">Search protocols</span>
         <Input type="search" placeholder="Search species" value={text} onChange={(e) => setText(e.target.value)} />
       </label>
-      <div role="group" aria-label="Show" className="mb-3 flex gap-2 overflow-x-auto">
+      <div role="group" aria-label="Show" className="mb-3 flex flex-wrap gap-2">
         {(
           [
             ["all", "All"],
