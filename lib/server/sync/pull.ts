@@ -60,6 +60,12 @@ export async function pullChanges(db: Knex, farmId: string, since: number, limit
   return readInSnapshot(db, (trx) => readPage(trx, farmId, since, limit));
 }
 
+async function eachInTurn<T, R>(items: readonly T[], fn: (item: T) => Promise<R>): Promise<R[]> {
+  const out: R[] = [];
+  for (const item of items) out.push(await fn(item));
+  return out;
+}
+
 async function readPage(db: Knex.Transaction, farmId: string, since: number, limit: number): Promise<PullPage> {
   const farm = await db("farms")
     .where({ id: farmId })
@@ -70,12 +76,12 @@ async function readPage(db: Knex.Transaction, farmId: string, since: number, lim
 
   // One row more than a page per table: a table that fills the page exactly is then known to end there, so the
   // answer is not marked truncated and the phone is not sent an empty extra page.
-  const perTable = await Promise.all(
-    pullTables.map(async (table) => {
-      const rows: Record<string, unknown>[] = await selectFor(db, table, farmId).where(seqColumn(table), ">", from).orderBy(seqColumn(table)).limit(limit + 1);
-      return rows.map((r) => ({ table, r, seq: Number(r.seq) }));
-    }),
-  );
+  // One table after another: a transaction is one connection, and pg only queues queries sent to it at once
+  // (deprecated in node-postgres 8, an error from 9).
+  const perTable = await eachInTurn(pullTables, async (table) => {
+    const rows: Record<string, unknown>[] = await selectFor(db, table, farmId).where(seqColumn(table), ">", from).orderBy(seqColumn(table)).limit(limit + 1);
+    return rows.map((r) => ({ table, r, seq: Number(r.seq) }));
+  });
   const merged = perTable.flat().sort((a, b) => a.seq - b.seq);
   const truncated = merged.length > limit;
   let page = merged.slice(0, limit);
@@ -85,12 +91,10 @@ async function readPage(db: Knex.Transaction, farmId: string, since: number, lim
   if (truncated) {
     // Rows written by one change share a seq: never split them across pages.
     const taken = new Set(page.map((p) => `${p.table}:${String(p.r.id)}`));
-    const rest = await Promise.all(
-      pullTables.map(async (table) => {
-        const rows: Record<string, unknown>[] = await selectFor(db, table, farmId).where(seqColumn(table), "=", cursor);
-        return rows.map((r) => ({ table, r, seq: cursor }));
-      }),
-    );
+    const rest = await eachInTurn(pullTables, async (table) => {
+      const rows: Record<string, unknown>[] = await selectFor(db, table, farmId).where(seqColumn(table), "=", cursor);
+      return rows.map((r) => ({ table, r, seq: cursor }));
+    });
     page = page.concat(rest.flat().filter((p) => !taken.has(`${p.table}:${String(p.r.id)}`)));
     // More only if a row after the cursor is known, or a table was cut off at the cursor's seq itself (its rows
     // after that seq were not read). Otherwise the rows that overflowed all shared the cursor's seq.
