@@ -11,7 +11,8 @@ import { Card, PageHeader } from "@/components/ui/Card";
 import { Chip } from "@/components/ui/Chip";
 import { Input } from "@/components/ui/Field";
 import { useMember } from "@/components/season/use-member";
-import { listProtocolCitations, readProtocolRow } from "@/lib/domain/rows/protocol-row";
+import { readProtocolRow } from "@/lib/domain/rows/protocol-row";
+import { listProtocolCitations } from "@/lib/domain/rows/starter-row";
 import { OriginBadge } from "./OriginBadge";
 
 type Show = "all" | "farm" | "published";
