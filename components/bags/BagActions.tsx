@@ -4,7 +4,7 @@ import Link from "next/link";
 import { useState } from "react";
 import type { Bag } from "@/lib/schemas/bag";
 import type { Store } from "@/lib/schemas/store";
-import type { BagState } from "@/lib/schemas/vocabulary";
+import type { BagState } from "@/lib/schemas/words";
 import { discardBag, pullBag } from "@/lib/client/repo";
 import { Button, buttonClass } from "@/components/ui/Button";
 import { BagEditForm } from "./BagEditForm";

@@ -9,7 +9,7 @@ import {
   useReactTable,
   type SortingState,
 } from "@tanstack/react-table";
-import { bagStates, vocabularyLabels, type BagState } from "@/lib/schemas/vocabulary";
+import { bagStates, vocabularyLabels, type BagState } from "@/lib/schemas/words";
 import { buttonClass } from "@/components/ui/Button";
 import { Chip } from "@/components/ui/Chip";
 import { Input, Select } from "@/components/ui/Field";

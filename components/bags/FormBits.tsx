@@ -1,4 +1,4 @@
-import { media, vocabularyLabels } from "@/lib/schemas/vocabulary";
+import { media, vocabularyLabels } from "@/lib/schemas/words";
 
 /** A save that did not happen, in words (from describeSaveError). */
 export function SaveError({ message }: { message: string | null }) {

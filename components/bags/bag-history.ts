@@ -1,5 +1,5 @@
 import type { AuditRow } from "@/lib/client/db";
-import { vocabularyLabels, type Medium } from "@/lib/schemas/vocabulary";
+import { vocabularyLabels, type Medium } from "@/lib/schemas/words";
 
 // The bag's history of edits from the phone's copy of audit_log: each line says which field changed, from what to
 // what, who did it and when. Values arrive as the server stored them (plain text, or JSON for anything else).

@@ -1,4 +1,4 @@
-import { parseIsoDay, type IsoDay } from "@/lib/domain";
+import { parseIsoDay, type IsoDay } from "@/lib/domain/dates";
 
 const short = new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "short" });
 const long = new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "short", year: "numeric" });

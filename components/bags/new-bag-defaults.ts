@@ -1,8 +1,10 @@
 import type { Lot } from "@/lib/schemas/lot";
 import type { Store } from "@/lib/schemas/store";
 import type { ProtocolRow } from "@/lib/client/db";
-import type { Medium } from "@/lib/schemas/vocabulary";
-import { computePullWindow, generateBagCode, normalizeCrockford, type IsoDay } from "@/lib/domain";
+import type { Medium } from "@/lib/schemas/words";
+import { generateBagCode, normalizeCrockford } from "@/lib/domain/bag-codes";
+import type { IsoDay } from "@/lib/domain/dates";
+import { computePullWindow } from "@/lib/domain/schedule";
 import { matchProtocolBySpecies, readProtocolRow } from "@/lib/domain/rows/protocol-row";
 
 // What the new-bag form fills in by itself from a lot, a protocol and the farm's stores. Pure, so it is tested

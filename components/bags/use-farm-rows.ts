@@ -4,7 +4,7 @@ import { useEffect, useState } from "react";
 import { useLiveQuery } from "dexie-react-hooks";
 import { getLocalDb } from "@/lib/client/db";
 import { loadReadingsOfBagStores } from "@/lib/client/fridge-reads";
-import { formatIsoDay, type IsoDay } from "@/lib/domain";
+import { formatIsoDay, type IsoDay } from "@/lib/domain/dates";
 import type { BagRowSources } from "@/lib/domain/rows/bag-rows";
 
 // Live reads of the phone store for the bag, lot and protocol screens. Writes never happen here.

@@ -1,4 +1,4 @@
-import { addDaysToIsoDay, countDaysBetween, type IsoDay } from "@/lib/domain";
+import { addDaysToIsoDay, countDaysBetween, type IsoDay } from "@/lib/domain/dates";
 
 // Geometry of the bag's window bar: start → window opens → window closes, with a marker for today.
 // Everything is a percentage of the bar's width so the SVG/CSS can scale to any screen.

@@ -2,21 +2,20 @@
 
 import Link from "next/link";
 import { useRouter, useSearchParams } from "next/navigation";
-import { useMemo, useRef, useState } from "react";
+import { useEffect, useMemo, useRef, useState } from "react";
 import { Controller, useForm, type Resolver } from "react-hook-form";
 import { useLiveQuery } from "dexie-react-hooks";
 import { useFarmRoots } from "@/components/learn/use-farm-roots";
 import { getLocalDb } from "@/lib/client/db";
 import { loadBagForSheet, loadFarmFetched } from "@/lib/client/fridge-reads";
 import { loadIdentity } from "@/lib/client/identity";
-import { queuePhoto } from "@/lib/client/photos";
 import { discardBag, pullBag, recordCheck, recordReading } from "@/lib/client/repo";
 import { formatBagCode, parseBagCode } from "@/lib/domain/bag-codes";
 import { formatIsoDay } from "@/lib/domain/dates";
 import { formatTemperature, type TemperatureUnit } from "@/lib/domain/units";
 import { AppError } from "@/lib/errors";
-import { canRun } from "@/lib/schemas/mutations";
-import { checkActions, moistureLevels, mouldLevels, sproutLevels, vocabularyLabels, type Moisture, type Mould, type Sprouts } from "@/lib/schemas/vocabulary";
+import { canRun } from "@/lib/schemas/roles";
+import { checkActions, moistureLevels, mouldLevels, sproutLevels, vocabularyLabels, type Moisture, type Mould, type Sprouts } from "@/lib/schemas/words";
 import { Button } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
 import { cautionTexts } from "@/components/ui/Caution";
@@ -33,16 +32,20 @@ import {
   allGoodDraft,
   isDraftEntered,
   markAllGood,
-  planCheckSave,
   previewCheck,
   spreadingMouldReason,
   toggleAction,
   type CheckDraft,
   type CheckEnd,
-  type CheckSavePlan,
 } from "./check-draft";
-import { compressPhoto } from "./compress-photo";
+import type { CheckSavePlan } from "./check-save";
 import { describeSheet, formatPullWindow } from "./sheet-view";
+
+// Needed only after a tap, so kept out of the sheet's first load (a grower opens it from a label on a weak
+// phone): the save's schema checks (zod), photo compression and the photo queue. The service worker
+// precaches these chunks with the rest, so they load with no signal; the save's are warmed once the sheet shows.
+const loadSave = () => import("./check-save");
+const loadPhotoTools = () => Promise.all([import("./compress-photo"), import("@/lib/client/photos")]);
 
 // The check sheet: one tap for "all good", or the findings, actions, note, temperature and a photo.
 // Saved on the phone through the repositories (outbox), so it works with no signal.
@@ -72,6 +75,12 @@ export function CheckSheet() {
   // Cold lost up to now moves the window, as on Today (the live query re-runs when the store's readings change).
   const view = useMemo(() => (data?.sheet ? describeSheet(data.sheet, today, { asOf: Date.now() }) : null), [data?.sheet, today]);
 
+  // Fetch the save's schema checks once the sheet is open, so the first tap does not wait for them.
+  useEffect(() => {
+    const t = setTimeout(() => void loadSave().catch(() => undefined), 300);
+    return () => clearTimeout(t);
+  }, []);
+
   const farmRoots = useFarmRoots(data?.sheet?.lot?.species, data?.sheet?.bag.start_date ?? null);
   const unit: TemperatureUnit = data?.identity?.farm.temperature_unit === "F" ? "F" : "C";
   const cadence = cadenceFor(data?.identity?.farm.weekly_check_days);
@@ -90,6 +99,7 @@ export function CheckSheet() {
   const resolver: Resolver<CheckDraft> = async (values) => {
     const { view, unit } = contextRef.current;
     if (!view) return { values: {}, errors: { root: { type: "bag", message: "No bag to check." } } };
+    const { planCheckSave } = await loadSave();
     const r = planCheckSave(values, { bag: view.forCheck, now: new Date(), today, unit, newId: () => crypto.randomUUID() });
     if (r.ok) return { values, errors: {} };
     const errors: Record<string, { type: string; message: string }> = {};
@@ -157,7 +167,7 @@ export function CheckSheet() {
     try {
       await recordCheck(plan.check);
       if (plan.reading) await recordReading(plan.reading);
-      if (photo) await queuePhoto({ bagId: forCheck.id, checkId: plan.check.id, blob: photo.blob });
+      if (photo) await (await import("@/lib/client/photos")).queuePhoto({ bagId: forCheck.id, checkId: plan.check.id, blob: photo.blob });
       if (plan.discard) await discardBag(plan.discard.id, plan.discard.discarded_on, plan.discard.discard_reason);
       else if (plan.pull) await pullBag(plan.pull.id, plan.pull.pulled_on);
       router.replace(leaveTo());
@@ -167,7 +177,8 @@ export function CheckSheet() {
     }
   }
 
-  function saveAllGood() {
+  async function saveAllGood() {
+    const { planCheckSave } = await loadSave();
     const r = planCheckSave(markAllGood(form.getValues()), { bag: forCheck, now: new Date(), today, unit, newId: () => crypto.randomUUID() });
     if (r.ok) return void persist(r.plan);
     if (r.fields.temperature) form.setError("temperatureText", { type: "invalid", message: r.fields.temperature });
@@ -175,7 +186,8 @@ export function CheckSheet() {
     setSaveError("Not saved: see the marked field below.");
   }
 
-  const onSubmit = form.handleSubmit((values) => {
+  const onSubmit = form.handleSubmit(async (values) => {
+    const { planCheckSave } = await loadSave();
     const r = planCheckSave(values, { bag: forCheck, now: new Date(), today, unit, newId: () => crypto.randomUUID() });
     if (r.ok) void persist(r.plan);
   });
@@ -195,6 +207,7 @@ export function CheckSheet() {
       }
       return;
     }
+    const { planCheckSave } = await loadSave();
     const r = planCheckSave(form.getValues(), { bag: forCheck, now: new Date(), today, unit, newId: () => crypto.randomUUID() }, end);
     if (r.ok) return void persist(r.plan);
     if (r.fields.temperature) form.setError("temperatureText", { type: "invalid", message: r.fields.temperature });
@@ -204,7 +217,7 @@ export function CheckSheet() {
   }
 
   function runStep(step: SheetStep) {
-    if (step === "all_good" || step === "keep_chilling") return saveAllGood();
+    if (step === "all_good" || step === "keep_chilling") return void saveAllGood();
     if (step === "save") return void onSubmit();
     setEnding((cur) => (cur === step ? null : step));
   }
@@ -213,6 +226,7 @@ export function CheckSheet() {
     setPhotoNote(null);
     if (!file) return;
     try {
+      const [{ compressPhoto }] = await loadPhotoTools();
       const blob = await compressPhoto(file);
       if (photo) URL.revokeObjectURL(photo.url);
       setPhoto({ blob, url: URL.createObjectURL(blob) });

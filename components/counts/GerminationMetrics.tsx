@@ -1,4 +1,4 @@
-import type { LabelledValue } from "@/lib/domain";
+import type { LabelledValue } from "@/lib/domain/germination";
 import { WorkedOut } from "@/components/ui/WorkedOut";
 import type { SowingSummary } from "./count-series";
 

@@ -4,7 +4,7 @@ import Link from "next/link";
 import { useSearchParams } from "next/navigation";
 import { useLiveQuery } from "dexie-react-hooks";
 import { getLocalDb } from "@/lib/client/db";
-import { formatBagCode } from "@/lib/domain";
+import { formatBagCode } from "@/lib/domain/bag-codes";
 import { Card, PageHeader } from "@/components/ui/Card";
 import { formatShortDay as formatDay } from "@/components/bags/format-day";
 import { SowingPanel } from "./SowingPanel";

@@ -1,6 +1,7 @@
 import { AppError } from "@/lib/errors";
 import { addDaysToIsoDay, countDaysBetween, type IsoDay } from "@/lib/domain/dates";
-import { computeGerminationMetrics, computeWilsonInterval, convertToPerInterval, type GerminationCount, type GerminationMetrics, type ProportionInterval } from "@/lib/domain";
+import { computeGerminationMetrics, convertToPerInterval, type GerminationCount, type GerminationMetrics } from "@/lib/domain/germination";
+import { computeWilsonInterval, type ProportionInterval } from "@/lib/domain/statistics";
 import { pickDailyTotals, type CountRowForTotals, type DailyTotal } from "@/lib/domain/count-rules";
 import type { Sowing } from "@/lib/schemas/sowing";
 

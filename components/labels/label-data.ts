@@ -5,7 +5,7 @@ import { pickBagCautions } from "@/components/check/bag-cautions";
 import { formatPullWindow } from "@/components/check/sheet-view";
 import type { FarmRows } from "@/lib/client/fridge-reads";
 import { buildLabelPayload } from "@/lib/domain/label-payload";
-import type { BagState } from "@/lib/schemas/vocabulary";
+import type { BagState } from "@/lib/schemas/words";
 
 // What each printed label says, and its QR code drawn as one SVG path (crisp at any print size).
 

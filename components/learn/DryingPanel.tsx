@@ -3,7 +3,7 @@
 import { useLiveQuery } from "dexie-react-hooks";
 import { getLocalDb } from "@/lib/client/db";
 import { loadStoreHistory } from "@/lib/client/history-reads";
-import { formatIsoDay } from "@/lib/domain";
+import { formatIsoDay } from "@/lib/domain/dates";
 import { buildDryingHistory, findBoxesToLookAt } from "@/lib/domain/rows/farm-history-rows";
 import { Card } from "@/components/ui/Card";
 import { formatShortDay } from "@/components/bags/format-day";

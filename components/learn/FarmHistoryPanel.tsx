@@ -1,13 +1,14 @@
 "use client";
 
-import dynamic from "next/dynamic";
 import Link from "next/link";
 import { useMemo, useState } from "react";
 import { useLiveQuery } from "dexie-react-hooks";
 import { getLocalDb, type ProtocolRow } from "@/lib/client/db";
 import { loadSpeciesHistory } from "@/lib/client/history-reads";
 import { saveProtocol } from "@/lib/client/repo";
-import { describeSeasons, farmWindowMinFinishedBags, formatIsoDay, reconcileProtocol } from "@/lib/domain";
+import { formatIsoDay } from "@/lib/domain/dates";
+import { describeSeasons, farmWindowMinFinishedBags } from "@/lib/domain/farm-history";
+import { reconcileProtocol } from "@/lib/domain/protocols";
 import { buildRootsHistory } from "@/lib/domain/rows/farm-history-rows";
 import { readProtocolRow } from "@/lib/domain/rows/protocol-row";
 import { Button } from "@/components/ui/Button";
@@ -17,13 +18,10 @@ import { useMember } from "@/components/season/use-member";
 import { describeSaveError } from "@/components/bags/save-error";
 import { SaveError } from "@/components/bags/FormBits";
 import { buildFarmRecordProtocol, findFarmRecordProtocol } from "./farm-protocol";
+import { RootsCurveChart } from "./RootsCurveChart";
 
 // "On this farm": when this species' bags showed roots here, beside the protocol's published window. Read from the
-// phone store, so it works with no signal. The chart (recharts) loads only when this panel shows.
-const RootsCurveChart = dynamic(() => import("./RootsCurveChart"), {
-  ssr: false,
-  loading: () => <div className="h-60 w-full animate-pulse rounded-card bg-rime-100" aria-hidden="true" />,
-});
+// phone store, so it works with no signal. The chart's drawing (recharts) loads only when this panel shows it.
 
 export function FarmHistoryPanel({ species, protocol, lotId = null }: { species: string; protocol: ProtocolRow | null; lotId?: string | null }) {
   const { can } = useMember();

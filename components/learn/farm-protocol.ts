@@ -1,4 +1,5 @@
-import { reconcileProtocol, describeFarmRecordSource, type PublishedDays } from "@/lib/domain";
+import { describeFarmRecordSource, type PublishedDays } from "@/lib/domain/farm-history";
+import { reconcileProtocol } from "@/lib/domain/protocols";
 import type { RootsHistory } from "@/lib/domain/rows/farm-history-rows";
 import type { ProtocolPhase } from "@/lib/schemas/protocol";
 import { toFarmOwnProtocol } from "@/lib/domain/rows/protocol-row";

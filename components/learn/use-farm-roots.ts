@@ -3,7 +3,8 @@
 import { useLiveQuery } from "dexie-react-hooks";
 import { getLocalDb } from "@/lib/client/db";
 import { loadSpeciesHistory } from "@/lib/client/history-reads";
-import { describeFarmRootsLine, findRootsWatchDay, formatIsoDay, type IsoDay } from "@/lib/domain";
+import { formatIsoDay, type IsoDay } from "@/lib/domain/dates";
+import { describeFarmRootsLine, findRootsWatchDay } from "@/lib/domain/farm-history";
 import { buildRootsHistory } from "@/lib/domain/rows/farm-history-rows";
 
 /**

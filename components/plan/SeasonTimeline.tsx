@@ -1,6 +1,6 @@
 import type { CSSProperties } from "react";
-import type { PhaseKind } from "@/lib/schemas/vocabulary";
-import { vocabularyLabels } from "@/lib/schemas/vocabulary";
+import type { PhaseKind } from "@/lib/schemas/words";
+import { vocabularyLabels } from "@/lib/schemas/words";
 import { formatDayWithWeekday, placeOnScale, type LaneStatus, type SeasonCountdown, type SeasonLane } from "./timeline";
 
 // The season counted back from the last frost: each species a paper tag pinned to a frost rule. The tag says in

@@ -1,5 +1,5 @@
 import { AppError } from "@/lib/errors";
-import { planSeason, type GerminationExpectation, type PlanWarning, type SeasonPlan } from "@/lib/domain";
+import { planSeason, type GerminationExpectation, type PlanWarning, type SeasonPlan } from "@/lib/domain/planning";
 import type { IsoDay } from "@/lib/domain/dates";
 import type { ProtocolForPlan } from "@/lib/domain/schedule";
 import type { PlanItem } from "@/lib/schemas/plan";

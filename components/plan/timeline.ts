@@ -1,6 +1,6 @@
 import { addDaysToIsoDay, countDaysBetween, formatDayInWords, parseIsoDay, type IsoDay } from "@/lib/domain/dates";
-import type { PhaseKind } from "@/lib/schemas/vocabulary";
-import type { PhaseStartBy } from "@/lib/domain";
+import type { PhaseKind } from "@/lib/schemas/words";
+import type { PhaseStartBy } from "@/lib/domain/planning";
 
 // The season counted back from the grower's fixed point: the farm's last frost (or, without one, each species'
 // own sowing day). Pure: dates in, days-before-frost, cold still needed from today and grower words out; the

@@ -4,14 +4,15 @@ import Link from "next/link";
 import { useMemo, useState } from "react";
 import { useLiveQuery } from "dexie-react-hooks";
 import { getLocalDb } from "@/lib/client/db";
-import { describeReconciledPhase, reconcileProtocol } from "@/lib/domain";
-import { vocabularyLabels } from "@/lib/schemas/vocabulary";
+import { describeReconciledPhase, reconcileProtocol } from "@/lib/domain/protocols";
+import { vocabularyLabels } from "@/lib/schemas/words";
 import { buttonClass } from "@/components/ui/Button";
 import { Card, PageHeader } from "@/components/ui/Card";
 import { Chip } from "@/components/ui/Chip";
 import { Input } from "@/components/ui/Field";
 import { useMember } from "@/components/season/use-member";
-import { listProtocolCitations, readProtocolRow } from "@/lib/domain/rows/protocol-row";
+import { readProtocolRow } from "@/lib/domain/rows/protocol-row";
+import { listProtocolCitations } from "@/lib/domain/rows/starter-row";
 import { OriginBadge } from "./OriginBadge";
 
 type Show = "all" | "farm" | "published";

@@ -1,5 +1,5 @@
 import type { ProtocolInput, ProtocolPhase, ProtocolSource, TemperatureBand, ToxicSeedFlag } from "@/lib/schemas/protocol";
-import type { PhaseKind } from "@/lib/schemas/vocabulary";
+import type { PhaseKind } from "@/lib/schemas/words";
 import type { ProtocolRow } from "@/lib/client/db";
 import { isTimedPhase } from "@/lib/domain/protocols";
 import { readProtocolRow } from "@/lib/domain/rows/protocol-row";

@@ -9,7 +9,7 @@ import { getSyncEngine } from "@/lib/client/sync";
 import { buttonClass, Button } from "@/components/ui/Button";
 import { Card, PageHeader } from "@/components/ui/Card";
 import { useMember } from "@/components/season/use-member";
-import { vocabularyLabels, type Role } from "@/lib/schemas/vocabulary";
+import { vocabularyLabels, type Role } from "@/lib/schemas/words";
 
 // Records: the farm's records as spreadsheet files, the Owner's backup, and restoring a backup into a new farm.
 // Downloads come from the server (they need signal); everything else on the phone keeps working without it.

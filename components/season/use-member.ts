@@ -2,8 +2,8 @@
 
 import { useIdentity } from "@/lib/client/hooks";
 import type { PhoneIdentity } from "@/lib/client/meta";
-import { canRun, type ActionName, type MutationName } from "@/lib/schemas/mutations";
-import type { TemperatureUnit } from "@/lib/domain";
+import { canRun, type ActionName, type MutationName } from "@/lib/schemas/roles";
+import type { TemperatureUnit } from "@/lib/domain/units";
 
 /** The signed-in member with what their role may do and the farm's temperature unit. */
 export function useMember(): { identity: PhoneIdentity | null | undefined; can: (name: MutationName | ActionName) => boolean; unit: TemperatureUnit } {

@@ -4,7 +4,7 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { ChangePasswordForm, PASSWORD_MIN, ProfileInput } from "@/lib/schemas/account";
-import { vocabularyLabels } from "@/lib/schemas/vocabulary";
+import { vocabularyLabels } from "@/lib/schemas/words";
 import { adoptIdentity } from "@/lib/client/identity";
 import { switchFarm, type IdentityWithFarms } from "@/lib/client/farm-switch";
 import { nudgeSync } from "@/lib/client/sync-signal";

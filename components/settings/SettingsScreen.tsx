@@ -8,7 +8,7 @@ import { useLiveQuery } from "dexie-react-hooks";
 import { FarmSettings } from "@/lib/schemas/farm";
 import { getLocalDb } from "@/lib/client/db";
 import { setDigestOptIn, updateFarmSettings } from "@/lib/client/repo";
-import { vocabularyLabels } from "@/lib/schemas/vocabulary";
+import { vocabularyLabels } from "@/lib/schemas/words";
 import { Button } from "@/components/ui/Button";
 import { Card, PageHeader } from "@/components/ui/Card";
 import { Field, Input, Select } from "@/components/ui/Field";

@@ -1,10 +1,13 @@
 "use client";
 
+import dynamic from "next/dynamic";
 import { useState } from "react";
 import { createPortal } from "react-dom";
 import { useSyncStatus } from "@/lib/client/hooks";
 import { describeSyncStatus, type PillTone } from "./sync-words";
-import { SyncDetails } from "./SyncDetails";
+
+// The details open only after a tap, so they load then (precached for offline like every chunk).
+const SyncDetails = dynamic(() => import("./SyncDetails").then((m) => m.SyncDetails), { ssr: false });
 
 const tones: Record<PillTone, string> = {
   ok: "bg-moss-100 text-moss-700 border-moss-600/30",

@@ -6,7 +6,7 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { z } from "zod";
 import { ZodError } from "zod";
 import { AppError } from "@/lib/errors";
-import { formatTemperature, parseTemperature, type TemperatureUnit } from "@/lib/domain";
+import { formatTemperature, parseTemperature, type TemperatureUnit } from "@/lib/domain/units";
 import { recordReading } from "@/lib/client/repo";
 import { Button } from "@/components/ui/Button";
 import { Field, Input } from "@/components/ui/Field";

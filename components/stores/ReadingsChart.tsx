@@ -1,11 +1,18 @@
 "use client";
 
-import { CartesianGrid, Line, LineChart, ReferenceArea, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
-import type { Excursion, TemperatureUnit } from "@/lib/domain";
+import dynamic from "next/dynamic";
+import type { Excursion } from "@/lib/domain/cold-exposure";
+import type { TemperatureUnit } from "@/lib/domain/units";
 import type { BandInUnit, ChartPoint } from "./store-metrics";
 
 const dayFmt = new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "short" });
-const stampFmt = new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "short", hour: "2-digit", minute: "2-digit" });
+
+// recharts loads only when readings are drawn; the placeholder holds the plot's height so nothing jumps, and the
+// figure's text (label and key) is here, outside the lazy part, so it is in the page from the start.
+const ReadingsPlot = dynamic(() => import("./ReadingsPlot"), {
+  ssr: false,
+  loading: () => <div className="h-full w-full animate-pulse rounded-card bg-rime-100" aria-hidden="true" />,
+});
 
 /** Readings over time with the store's band and its optimum shaded (none for a cold frame), and excursions marked. */
 export function ReadingsChart({ points, band, unit, excursions }: { points: ChartPoint[]; band: BandInUnit | null; unit: TemperatureUnit; excursions: Excursion[] }) {
@@ -18,38 +25,7 @@ export function ReadingsChart({ points, band, unit, excursions }: { points: Char
   return (
     <figure>
       <div className="h-64 w-full" role="img" aria-label={`Temperature readings from ${dayFmt.format(first)} to ${dayFmt.format(last)}${band ? `, with the cold band ${band.band.min}–${band.band.max} °${unit} shaded` : ""}.`}>
-        <ResponsiveContainer width="100%" height="100%">
-          <LineChart data={points} margin={{ top: 8, right: 8, bottom: 0, left: -16 }}>
-            <CartesianGrid stroke="var(--color-rime-200)" strokeDasharray="2 4" />
-            {band ? <ReferenceArea y1={band.band.min} y2={band.band.max} fill="var(--color-rime-200)" fillOpacity={0.6} ifOverflow="hidden" /> : null}
-            {band ? <ReferenceArea y1={band.optimum.min} y2={band.optimum.max} fill="var(--color-glacier-400)" fillOpacity={0.22} ifOverflow="hidden" /> : null}
-            {excursions.map((e) => (
-              <ReferenceArea
-                key={e.startAt}
-                x1={Date.parse(e.startAt)}
-                x2={Math.max(Date.parse(e.endAt), Date.parse(e.startAt) + 3_600_000)}
-                fill="var(--color-ember-600)"
-                fillOpacity={0.18}
-                ifOverflow="hidden"
-              />
-            ))}
-            <XAxis
-              dataKey="t"
-              type="number"
-              scale="time"
-              domain={[first, last]}
-              tickFormatter={(t: number) => dayFmt.format(t)}
-              tick={{ fontSize: 12, fill: "var(--color-ink-soft)" }}
-              minTickGap={24}
-            />
-            <YAxis domain={[lo, hi]} allowDecimals={false} tick={{ fontSize: 12, fill: "var(--color-ink-soft)" }} unit="°" width={48} />
-            <Tooltip
-              labelFormatter={(t) => stampFmt.format(Number(t))}
-              formatter={(v) => [`${Number(v).toFixed(1)} °${unit}`, "Reading"]}
-            />
-            <Line type="linear" dataKey="value" stroke="var(--color-glacier-700)" strokeWidth={2} dot={points.length < 60 ? { r: 2 } : false} isAnimationActive={false} />
-          </LineChart>
-        </ResponsiveContainer>
+        <ReadingsPlot points={points} band={band} unit={unit} excursions={excursions} lo={lo} hi={hi} />
       </div>
       <figcaption className="mt-2 flex flex-wrap gap-x-4 gap-y-1 text-label text-ink-soft">
         {band ? (

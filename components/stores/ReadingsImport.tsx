@@ -4,7 +4,7 @@ import { useEffect, useState } from "react";
 import { AppError } from "@/lib/errors";
 import { decodeCsvBytes, maxCsvBytes, type CsvRowReport } from "@/lib/domain/csv";
 import { parseReadingsCsv, type ReadingsCsvReport } from "@/lib/domain/csv-readings";
-import type { TemperatureUnit } from "@/lib/domain";
+import type { TemperatureUnit } from "@/lib/domain/units";
 import { Button } from "@/components/ui/Button";
 import { Field, Select } from "@/components/ui/Field";
 import { getSyncEngine } from "@/lib/client/sync";

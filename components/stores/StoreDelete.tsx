@@ -4,7 +4,7 @@ import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { deleteStore } from "@/lib/client/repo";
 import { findBagsStillInStore, type BagPlace } from "@/lib/domain/store-rules";
-import { formatBagCode } from "@/lib/domain";
+import { formatBagCode } from "@/lib/domain/bag-codes";
 import type { Store } from "@/lib/schemas/store";
 import { Button } from "@/components/ui/Button";
 import { ConfirmPanel, useConfirmedAction } from "@/components/ui/ConfirmPanel";

@@ -4,7 +4,7 @@ import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { z } from "zod";
 import { StoreInput, type Store } from "@/lib/schemas/store";
-import { storeKinds, vocabularyLabels } from "@/lib/schemas/vocabulary";
+import { storeKinds, vocabularyLabels } from "@/lib/schemas/words";
 import { createStore, updateStore } from "@/lib/client/repo";
 import { Caution, cautionTexts } from "@/components/ui/Caution";
 import { Field, Input, Select, TextArea } from "@/components/ui/Field";

@@ -1,4 +1,4 @@
-import type { StoreKind } from "@/lib/schemas/vocabulary";
+import type { StoreKind } from "@/lib/schemas/words";
 
 /** Rimebook's own small pictures of a store: a tall door, a chest with a lid, a glazed frame. Drawn for this app. */
 export function StoreGlyph({ kind, className = "h-10 w-10 shrink-0" }: { kind: StoreKind; className?: string }) {

@@ -1,20 +1,13 @@
 import { AppError } from "@/lib/errors";
-import {
-  convertFromCelsius,
-  defaultEffectiveBand,
-  findOptimumBand,
-  measureColdExposure,
-  prepareStoreReadings,
-  type ColdExposure,
-  type IsoDay,
-  type StoreReadings,
-  type PullWindow,
-  type TemperatureReading,
-  type TemperatureUnit,
-} from "@/lib/domain";
+import { measureColdExposure, type ColdExposure, type TemperatureReading } from "@/lib/domain/cold-exposure";
+import type { IsoDay } from "@/lib/domain/dates";
+import { prepareStoreReadings, type StoreReadings } from "@/lib/domain/effective-window";
+import { defaultEffectiveBand, findOptimumBand } from "@/lib/domain/protocols";
+import type { PullWindow } from "@/lib/domain/schedule";
+import { convertFromCelsius, type TemperatureUnit } from "@/lib/domain/units";
 import { findEffectiveBagWindow, type BagForWindow } from "@/lib/domain/rows/bag-rows";
 import type { ProtocolRow } from "@/lib/client/db";
-import type { StoreKind } from "@/lib/schemas/vocabulary";
+import type { StoreKind } from "@/lib/schemas/words";
 import type { TemperatureBand } from "@/lib/schemas/protocol";
 import type { Reading } from "@/lib/schemas/reading";
 

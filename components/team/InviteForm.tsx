@@ -4,7 +4,7 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { InviteInput } from "@/lib/schemas/account";
-import { roles, vocabularyLabels } from "@/lib/schemas/vocabulary";
+import { roles, vocabularyLabels } from "@/lib/schemas/words";
 import { Button } from "@/components/ui/Button";
 import { Field, Select } from "@/components/ui/Field";
 import { EmailInput, FormMessage, applyServerError, invalidProps, sendJson } from "@/components/auth/form-kit";

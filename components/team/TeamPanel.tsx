@@ -1,7 +1,7 @@
 "use client";
 
 import { useCallback, useEffect, useState } from "react";
-import { roles, vocabularyLabels, type Role } from "@/lib/schemas/vocabulary";
+import { roles, vocabularyLabels, type Role } from "@/lib/schemas/words";
 import { Button } from "@/components/ui/Button";
 import { Card, PageHeader } from "@/components/ui/Card";
 import { Select } from "@/components/ui/Field";

@@ -1,4 +1,4 @@
-import type { Role } from "@/lib/schemas/vocabulary";
+import type { Role } from "@/lib/schemas/words";
 
 /** What each role may do, in a few words (the rules themselves live in lib/schemas/mutations.ts). */
 export const roleHints: Record<Role, string> = {

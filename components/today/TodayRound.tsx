@@ -11,7 +11,7 @@ import { formatIsoDay } from "@/lib/domain/dates";
 import { formatBagCode } from "@/lib/domain/bag-codes";
 import type { RoundItem } from "@/lib/domain/round";
 import { chooseSheetSteps, sheetStepLabels, type SheetTone } from "@/lib/domain/check-choice";
-import { allGoodFindings } from "@/lib/schemas/check";
+import { allGoodFindings } from "@/lib/schemas/words";
 import { buttonClass } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
 import { StateBadge } from "@/components/ui/StateBadge";

@@ -1,4 +1,6 @@
-import { computeWilsonInterval, countDaysBetween, describeTrialVerdict, reconcileProtocol, type ProportionInterval, type TrialVerdict } from "@/lib/domain";
+import { countDaysBetween } from "@/lib/domain/dates";
+import { reconcileProtocol } from "@/lib/domain/protocols";
+import { computeWilsonInterval, describeTrialVerdict, type ProportionInterval, type TrialVerdict } from "@/lib/domain/statistics";
 import type { ProtocolPhase } from "@/lib/schemas/protocol";
 import { toFarmOwnProtocol } from "@/lib/domain/rows/protocol-row";
 import { mutationTable, type MutationArgs } from "@/lib/schemas/mutations";
@@ -6,7 +8,7 @@ import type { Bag } from "@/lib/schemas/bag";
 import type { Sowing } from "@/lib/schemas/sowing";
 import type { Count } from "@/lib/schemas/count";
 import type { Trial, TrialArm } from "@/lib/schemas/trial";
-import type { StoreKind } from "@/lib/schemas/vocabulary";
+import type { StoreKind } from "@/lib/schemas/words";
 import type { ProtocolRow } from "@/lib/client/db";
 import { findFinalTotal } from "@/components/counts/count-series";
 

@@ -1,5 +1,5 @@
-import type { BagState, Sprouts } from "@/lib/schemas/vocabulary";
-import { vocabularyLabels } from "@/lib/schemas/vocabulary";
+import type { BagState, Sprouts } from "@/lib/schemas/words";
+import { vocabularyLabels } from "@/lib/schemas/words";
 import { findBadgeKind, type BadgeKind } from "@/lib/domain/sow-queue";
 
 // Each state has its own colour, its own shape and its own glyph, so they read apart at a glance, in greyscale,

@@ -1,4 +1,4 @@
-import type { Role } from "@/lib/schemas/vocabulary";
+import type { Role } from "@/lib/schemas/words";
 import { getLocalDb, type RimebookDB } from "./db";
 import { adoptIdentity, clearFarmCaches, loadIdentity } from "./identity";
 import type { PhoneIdentity } from "./meta";

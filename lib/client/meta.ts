@@ -1,4 +1,4 @@
-import { Role } from "@/lib/schemas/vocabulary";
+import { readRole, type Role } from "@/lib/schemas/words";
 import type { RimebookDB } from "./db";
 
 // Keys of the phone store's meta table, and the identity the app needs to open with no signal.
@@ -30,14 +30,14 @@ export type PhoneIdentity = {
 };
 
 /**
- * The one way the phone reads its identity: roles go through the Role schema, so a phone that last
+ * The one way the phone reads its identity: roles go through readRole, so a phone that last
  * synced before "viewer" became "visitor" reads itself (and its other farms) as a Visitor. A role
- * the schema does not know reads as the least one (a Visitor can change nothing); the next pull
+ * it does not know reads as the least one (a Visitor can change nothing); the next pull
  * brings the server's word.
  */
 export function identityFrom<T extends PhoneIdentity>(value: T | undefined): T | undefined {
   if (!value) return value;
-  const role = (r: unknown): Role => Role.catch("visitor").parse(r);
+  const role = readRole;
   const farms = (value as { farms?: unknown }).farms;
   return {
     ...value,

@@ -2,7 +2,8 @@ import type { z } from "zod";
 import { AppError } from "@/lib/errors";
 import { assertStoreCanBeDeleted } from "@/lib/domain/store-rules";
 import { effectsOf } from "@/lib/schemas/mutation-effects";
-import { canRun, mutationTable, type MutationArgs, type MutationName } from "@/lib/schemas/mutations";
+import type { MutationArgs, mutationTable } from "@/lib/schemas/mutations";
+import { canRun, type MutationName } from "@/lib/schemas/roles";
 import type { BagInput, BagPatch } from "@/lib/schemas/bag";
 import type { CheckInput } from "@/lib/schemas/check";
 import type { CountInput } from "@/lib/schemas/count";
@@ -29,9 +30,16 @@ type New<T extends { id?: unknown }> = Omit<T, "id"> & { id?: string };
 
 const newId = () => crypto.randomUUID();
 
+/**
+ * The argument schemas (zod and every entity's schema) load on the first write, not with the screen, so the
+ * check path's first load stays small on a weak phone. The service worker precaches the chunk like every
+ * other, so a write with no signal finds it.
+ */
+const loadMutationTable = () => import("@/lib/schemas/mutations").then((m) => m.mutationTable);
+
 /** Validates, writes locally with its outbox entry, nudges sync; returns the parsed args (with ids). */
 export async function runMutation<N extends MutationName>(name: N, input: InputOf<N>, db: RimebookDB = getLocalDb()): Promise<MutationArgs<N>> {
-  const args = mutationTable[name].args.parse(input) as MutationArgs<N>;
+  const args = (await loadMutationTable())[name].args.parse(input) as MutationArgs<N>;
   const at = new Date().toISOString();
   await db.transaction("rw", writeTables(db), async () => {
     const identity = await readIdentity(db);

@@ -1,4 +1,4 @@
-import type { BagState, Mould, Sprouts } from "@/lib/schemas/vocabulary";
+import type { BagState, Mould, Sprouts } from "@/lib/schemas/words";
 import type { CheckFindings } from "./schedule";
 
 // What a grower should do first with the bag in front of them: one rule for the check sheet's buttons and for

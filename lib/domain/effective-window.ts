@@ -1,5 +1,5 @@
 import type { TemperatureBand } from "@/lib/schemas/protocol";
-import type { StoreKind } from "@/lib/schemas/vocabulary";
+import type { StoreKind } from "@/lib/schemas/words";
 import { convertToCelsius, formatTemperature } from "./units";
 import { parseIsoDay, type IsoDay } from "./dates";
 import { defaultEffectiveBand, reconcileProtocol, type ReconciledProtocol } from "./protocols";

@@ -1,4 +1,4 @@
-import type { CheckAction, Moisture, Sprouts } from "@/lib/schemas/vocabulary";
+import type { CheckAction, Moisture, Sprouts } from "@/lib/schemas/words";
 import { addDaysToIsoDay, countDaysBetween, type IsoDay } from "./dates";
 import type { ReconciledProtocol } from "./protocols";
 import { estimateSurvival, type SurvivalCurve, type TimeObservation } from "./survival";

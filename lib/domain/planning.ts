@@ -2,7 +2,7 @@ import { DomainError } from "@/lib/errors";
 import { addDaysToIsoDay, formatDayInWords, parseIsoDay, type IsoDay } from "./dates";
 import { reconcileProtocol, type ReconciledProtocol } from "./protocols";
 import type { ProtocolForPlan } from "./schedule";
-import type { PhaseKind } from "@/lib/schemas/vocabulary";
+import type { PhaseKind } from "@/lib/schemas/words";
 import { computeWilsonInterval } from "./statistics";
 
 export interface SowingRule {

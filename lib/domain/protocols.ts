@@ -1,6 +1,6 @@
 import type { Protocol, ProtocolPhase, ProtocolSource, TemperatureBand } from "@/lib/schemas/protocol";
-import { timedPhaseKinds } from "@/lib/schemas/protocol";
-import type { PhaseKind } from "@/lib/schemas/vocabulary";
+import { timedPhaseKinds } from "@/lib/schemas/words";
+import type { PhaseKind } from "@/lib/schemas/words";
 
 /** Default band that counts as cold (product default; Chong et al. tables give 1–5 °C, some species do best at 10 °C). */
 export const defaultEffectiveBand: TemperatureBand = { minC: 0, maxC: 10 };

@@ -1,4 +1,4 @@
-import type { BagState } from "@/lib/schemas/vocabulary";
+import type { BagState } from "@/lib/schemas/words";
 import type { IsoDay } from "./dates";
 import {
   determineBagState,

@@ -1,5 +1,5 @@
 import type { Protocol } from "@/lib/schemas/protocol";
-import type { BagState, CheckAction, Moisture, Mould, PhaseKind, Sprouts } from "@/lib/schemas/vocabulary";
+import type { BagState, CheckAction, Moisture, Mould, PhaseKind, Sprouts } from "@/lib/schemas/words";
 import { DomainError } from "@/lib/errors";
 import { addDaysToIsoDay, parseIsoDay, pickEarlierDay, pickLaterDay, type IsoDay } from "./dates";
 import { reconcileProtocol, type ReconciledProtocol } from "./protocols";

@@ -1,4 +1,4 @@
-import type { BagState, Sprouts } from "@/lib/schemas/vocabulary";
+import type { BagState, Sprouts } from "@/lib/schemas/words";
 import { addDaysToIsoDay, countDaysBetween, type IsoDay } from "./dates";
 
 // Pulled bags waiting to be sown: Today's "To sow" group, the sowing queue and the digest share this rule.

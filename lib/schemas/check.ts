@@ -18,5 +18,4 @@ export type Check = z.infer<typeof Check>;
 export const CheckInput = Check.omit({ ...serverStamped, checked_by: true });
 export type CheckInput = z.input<typeof CheckInput>;
 
-/** The one-tap "all good": damp with dry corners, clean, no sprouts. */
-export const allGoodFindings = { moisture: "damp", mould: "clean", sprouts: "none" } as const;
+export { allGoodFindings } from "./words";

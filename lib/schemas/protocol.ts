@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { timedPhaseKinds } from "./words";
 import { PhaseKind } from "./vocabulary";
 
 // A species' pretreatment: ordered phases, each backed by one or more sources. Storage adds ids and farm columns
@@ -32,8 +33,7 @@ export const ProtocolSource = z
   .refine((s) => s.maxDays === null || s.minDays <= s.maxDays, { error: "The shortest time must not be longer than the longest.", path: ["maxDays"] });
 export type ProtocolSource = z.infer<typeof ProtocolSource>;
 
-/** Phases that take days in a bag; scarify and light are steps or needs without a duration. */
-export const timedPhaseKinds = ["warm_moist", "cold_moist", "frozen"] as const satisfies readonly PhaseKind[];
+export { timedPhaseKinds } from "./words";
 
 export const ProtocolPhase = z
   .object({

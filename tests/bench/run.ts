@@ -7,7 +7,6 @@ import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import http from "node:http";
-import zlib from "node:zlib";
 import { randomUUID } from "node:crypto";
 import { spawn, spawnSync } from "node:child_process";
 import { performance } from "node:perf_hooks";
@@ -306,23 +305,9 @@ async function benchFirstLoad() {
   const routes = Object.values(JSON.parse(fs.readFileSync(distPath("app-path-routes-manifest.json"), "utf8")) as Record<string, string>)
     .filter((r) => !r.startsWith("/api") && !r.startsWith("/_") && !r.includes("["))
     .sort();
-  const gz = new Map<string, number>();
-  const scriptsOf = async (route: string) => {
-    // Signed in for farm pages; signed out for the sign-in page (which sends a signed-in visitor on).
-    let res = await fetch(`${app.origin}${route}`, { headers: { cookie }, redirect: "manual" });
-    if (res.status >= 300 && res.status < 400) res = await fetch(`${app.origin}${route}`, { redirect: "manual" });
-    if (!(res.headers.get("content-type") ?? "").includes("text/html")) return { status: res.status, total: 0, count: 0, html: false };
-    const html = await res.text();
-    // Scripts the page loads (module browsers skip the nomodule polyfills).
-    const srcs = [...html.matchAll(/<script\b([^>]*)\bsrc="(\/_next\/static\/[^"]+\.js)"([^>]*)>/g)].filter((m) => !/nomodule/i.test(m[1] + m[3])).map((m) => m[2]);
-    let total = 0;
-    for (const src of new Set(srcs)) {
-      if (!gz.has(src)) gz.set(src, zlib.gzipSync(fs.readFileSync(distPath("static", src.replace("/_next/static/", "")))).length);
-      total += gz.get(src)!;
-    }
-    return { status: res.status, total, count: new Set(srcs).size, html: true };
-  };
-  const floor = await scriptsOf("/_rimebook_bench_missing_page");
+  const { measureFirstLoad, FLOOR_ROUTE } = await import("../e2e/support/first-load");
+  const scriptsOf = (route: string) => measureFirstLoad(app.origin, route, cookie);
+  const floor = await scriptsOf(FLOOR_ROUTE);
   console.log(`  framework floor (not-found page): ${(floor.total / 1024).toFixed(1)} kB gzip in ${floor.count} scripts`);
   for (const route of routes) {
     const r = await scriptsOf(route);

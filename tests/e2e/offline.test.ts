@@ -107,6 +107,12 @@ describe("offline-first phone", () => {
     expect(res?.ok()).toBe(true);
     expect(await page.getByRole("heading", { name: "No signal here" }).count()).toBe(0);
     await shoot(page, "offline-03-bag-view");
+
+    // A store's readings chart: its drawing (recharts) is a chunk loaded only when drawn, and still draws offline.
+    const fridge = readOne<{ id: string }>("SELECT s.id FROM stores s WHERE s.kind = 'fridge' AND s.deleted_at IS NULL AND EXISTS (SELECT 1 FROM readings r WHERE r.store_id = s.id) LIMIT 1")!;
+    expect((await page.goto(`/stores/view?id=${fridge.id}`))?.ok()).toBe(true);
+    await page.getByRole("img", { name: /Temperature readings from/ }).locator("svg.recharts-surface").first().waitFor({ state: "visible", timeout: 30_000 });
+    await shoot(page, "offline-03-store-chart");
   }, 180_000);
 
   it("records a check with no signal; it waits on the phone and reaches the server and a second phone when the signal returns", async () => {

@@ -7,7 +7,8 @@ import { queuePhoto } from "@/lib/client/photos";
 import { createBag, createLot, createStore, recordCheck, recordReading, updateBag } from "@/lib/client/repo";
 import { outboxCounts } from "@/lib/client/sync";
 import { tallyWaiting } from "@/lib/client/waiting";
-import { allGoodDraft, planCheckSave } from "@/components/check/check-draft";
+import { allGoodDraft } from "@/components/check/check-draft";
+import { planCheckSave } from "@/components/check/check-save";
 import { describeSyncStatus, unsentWords, waitingCount, waitingWords } from "@/components/shell/sync-words";
 
 // What waits on the phone is counted as the person recorded it: the pill, the sync details, sign-out

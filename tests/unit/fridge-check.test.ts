@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { allGoodDraft, isDraftEntered, markAllGood, planCheckSave, previewCheck, toggleAction, type BagForCheck, type CheckDraft } from "@/components/check/check-draft";
+import { allGoodDraft, isDraftEntered, markAllGood, previewCheck, toggleAction, type BagForCheck, type CheckDraft } from "@/components/check/check-draft";
+import { planCheckSave } from "@/components/check/check-save";
 import { computePullWindow } from "@/lib/domain/schedule";
 import { formatPullWindow } from "@/components/check/sheet-view";
 import { starterProtocols } from "@/lib/domain/starter-protocols";

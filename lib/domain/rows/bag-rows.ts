@@ -3,29 +3,14 @@ import type { Lot } from "@/lib/schemas/lot";
 import type { Reading } from "@/lib/schemas/reading";
 import type { Store } from "@/lib/schemas/store";
 import type { ProtocolRow } from "@/lib/client/db";
-import type { BagState, Medium, StoreKind } from "@/lib/schemas/vocabulary";
-import { bagStates } from "@/lib/schemas/vocabulary";
-import {
-  addDaysToIsoDay,
-  computePullWindow,
-  determineBagState,
-  findEffectiveWindow,
-  formatBagCode,
-  parseIsoDay,
-  parseReadingTime,
-  planBagPhases,
-  prepareStoreReadings,
-  reconcileProtocol,
-  sortStoreReadings,
-  type BagPlan,
-  type EffectiveWindow,
-  type IsoDay,
-  type PullWindow,
-  type ReconciledProtocol,
-  type StoreReadings,
-  type TemperatureReading,
-  type WindowBasis,
-} from "@/lib/domain";
+import type { BagState, Medium, StoreKind } from "@/lib/schemas/words";
+import { bagStates } from "@/lib/schemas/words";
+import { formatBagCode } from "@/lib/domain/bag-codes";
+import type { TemperatureReading } from "@/lib/domain/cold-exposure";
+import { addDaysToIsoDay, parseIsoDay, type IsoDay } from "@/lib/domain/dates";
+import { findEffectiveWindow, parseReadingTime, prepareStoreReadings, sortStoreReadings, type EffectiveWindow, type StoreReadings, type WindowBasis } from "@/lib/domain/effective-window";
+import { reconcileProtocol, type ReconciledProtocol } from "@/lib/domain/protocols";
+import { computePullWindow, determineBagState, planBagPhases, type BagPlan, type PullWindow } from "@/lib/domain/schedule";
 import { readProtocolRow } from "@/lib/domain/rows/protocol-row";
 
 // Pure helpers behind the bags table: one row per bag with its state and window worked out on the phone

@@ -1,6 +1,5 @@
 import type { ProtocolRow } from "@/lib/client/db";
 import type { Protocol, ProtocolInput, ProtocolPhase } from "@/lib/schemas/protocol";
-import { starterProtocols, type StarterProtocol } from "@/lib/domain/starter-protocols";
 
 // The phone stores protocols as snake_case rows; lib/domain and the Protocol schema use camelCase.
 
@@ -37,19 +36,6 @@ export function toFarmOwnProtocol(
     medicinal: base?.medicinal ?? false,
     note: note.slice(0, 1000),
   };
-}
-
-/** The starter library row a stored protocol was installed from, if any (it keeps citations for rows without phases). */
-export function findStarterFor(row: Pick<ProtocolRow, "starter_key">): StarterProtocol | null {
-  if (!row.starter_key) return null;
-  return starterProtocols.find((s) => s.key === row.starter_key) ?? null;
-}
-
-/** Every citation behind a protocol row: its phases' sources, plus the starter row's own (e.g. "none required" rows). */
-export function listProtocolCitations(row: ProtocolRow): string[] {
-  const fromPhases = readProtocolRow(row).phases.flatMap((p) => p.sources.map((s) => s.citation));
-  const fromStarter = findStarterFor(row)?.citations ?? [];
-  return [...new Set([...fromPhases, ...fromStarter])];
 }
 
 function genusOf(species: string): string {

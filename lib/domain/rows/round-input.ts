@@ -4,7 +4,7 @@ import { buildTodaysRound, type RoundBag, type TodaysRound } from "@/lib/domain/
 import { defaultCheckCadence, type CheckCadence, type CheckFindings, type NextCheckReason } from "@/lib/domain/schedule";
 import { buildSowQueue, type PulledBag, type SowItem, type SowRule } from "@/lib/domain/sow-queue";
 import type { Check } from "@/lib/schemas/check";
-import type { StoreKind } from "@/lib/schemas/vocabulary";
+import type { StoreKind } from "@/lib/schemas/words";
 import type { SheetTone } from "@/lib/domain/check-choice";
 import { findRootsWatchDay, type FarmWindow } from "@/lib/domain/farm-history";
 

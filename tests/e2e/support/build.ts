@@ -11,7 +11,7 @@ export const E2E_DIST_DIR = process.env.E2E_DIST_DIR ?? ".next-e2e";
 export const ARTIFACTS = path.join(ROOT, "artifacts", "e2e");
 
 // Everything that goes into the build. Generated service-worker files in public/ are outputs, not inputs.
-const SOURCES = ["app", "components", "lib", "sw", "public", "fonts", "db", "next.config.mjs", "security-headers.mjs", "postcss.config.mjs", "package-lock.json", "tsconfig.json"];
+const SOURCES = ["app", "components", "lib", "sw", "public", "fonts", "db", "next.config.mjs", "security-headers.mjs", "postcss.config.mjs", "package.json", "package-lock.json", "tsconfig.json"];
 const GENERATED = /^(sw(-[a-z0-9]+)?\.js|swe-worker-.*\.js)(\.map)?$/;
 
 function newestMtime(p: string): number {
