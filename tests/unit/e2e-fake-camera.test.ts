@@ -36,12 +36,13 @@ function decode(luma: Uint8ClampedArray, width: number, height: number): string 
 }
 
 describe("the fake camera's label video", () => {
-  it("reads back, for every one of 40 random bag codes, in at least one pose", () => {
+  it("reads back, for every one of 40 spread-out bag codes, in at least one pose", () => {
     const dir = fs.mkdtempSync(path.join(os.tmpdir(), "rimebook-camera-"));
     try {
       const unread: string[] = [];
       for (let i = 0; i < 40; i++) {
-        const code = generateBagCode(crypto.getRandomValues(new Uint8Array(7)));
+        // Fixed pseudo-random bytes (a small LCG): the same 40 codes every run, so a pass is not luck.
+        const code = generateBagCode(Uint8Array.from({ length: 7 }, (_, k) => ((i + 1) * 2654435761 + k * 40503) % 251));
         const text = buildLabelPayload(code, `http://127.0.0.1:${30000 + i * 577}`);
         const { size, path: d } = drawQr(text);
         const file = path.join(dir, `${code.replace(/[^A-Z0-9]/g, "_")}.y4m`);
