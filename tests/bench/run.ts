@@ -351,6 +351,7 @@ async function benchToday() {
   // What the effective windows cost: the same round with the stores' readings left out (every window as planned).
   const noReadings = { ...rows, readings: [] };
   const planned = median(await Promise.all([0, 1, 2, 3, 4].map(() => time(() => buildRoundFromRows(noReadings, lastChecks, today, cadenceFor(7))))));
+  const oneRound = await benchOneRound(rows, lastChecks, today);
   const moved = buildBagRows(rows, today).filter((r) => r.lostColdDays > 0).length;
   // Baselines: a plain scan of the same rows (read them all, one pass comparing dates), and reading the table alone.
   const readOnly = median([await time(() => phone.bags.toArray()), await time(() => phone.bags.toArray()), await time(() => phone.bags.toArray())]);
@@ -385,6 +386,48 @@ async function benchToday() {
   record({ bench: "Today round", measure: `last check of ${live.length.toLocaleString("en")} bags, one indexed query per bag (loadLastChecks)`, value: perBag, unit: "ms", baseline: "one read of the checks table, newest per bag", baselineValue: onePass });
   record({ bench: "Today round", measure: `lib/domain round over ${BAGS.toLocaleString("en")} bags, rows in memory`, value: domain, unit: "ms", baseline: "plain array scan of the same rows", baselineValue: Math.max(scan, 0.01) });
   record({ bench: "Today round", measure: `the same round with effective windows from ${rows.readings.length.toLocaleString("en")} readings`, value: domain, unit: "ms", baseline: "the same round, readings left out (planned windows)", baselineValue: planned });
+  recordOneRound(oneRound, rows.readings.length);
+}
+
+// 5b. The lib/domain round timed one round at a time (a synchronous round inside Promise.all spans several rounds).
+type OneRound = { round: number; cpu: number; readings: number; scan: number };
+async function benchOneRound(
+  rows: import("@/lib/domain/rows/bag-rows").BagRowSources,
+  lastChecks: ReadonlyMap<string, import("@/lib/domain/rows/round-input").LastCheckRow>,
+  today: string,
+): Promise<OneRound> {
+  const { buildRoundFromRows, cadenceFor } = await import("@/lib/domain/rows/round-input");
+  const { prepareReadingsByStore } = await import("@/lib/domain/rows/bag-rows");
+  const sample = (fn: () => unknown, n: number) => {
+    const wall: number[] = [];
+    const cpu: number[] = [];
+    for (let i = 0; i < n; i++) {
+      const c = process.cpuUsage();
+      const t = performance.now();
+      fn();
+      wall.push(performance.now() - t);
+      const d = process.cpuUsage(c);
+      cpu.push((d.user + d.system) / 1000);
+    }
+    return { wall: median(wall), cpu: median(cpu) };
+  };
+  const round = () => buildRoundFromRows(rows, lastChecks, today, cadenceFor(7));
+  round();
+  const r = sample(round, 15);
+  const readings = sample(() => prepareReadingsByStore(rows.readings ?? []), 15).wall;
+  const scan = sample(() => {
+    let n = 0;
+    for (const b of rows.bags) if (b.start_date && b.start_date <= today && !b.pulled_on && !b.discarded_on) n++;
+    return n;
+  }, 15).wall;
+  return { round: r.wall, cpu: r.cpu, readings, scan: Math.max(scan, 0.01) };
+}
+
+function recordOneRound(o: OneRound, readingCount: number) {
+  const baseline = "plain array scan of the same rows";
+  record({ bench: "Today round", measure: `lib/domain round over ${BAGS.toLocaleString("en")} bags, one round at a time (median of 15)`, value: o.round, unit: "ms", baseline, baselineValue: o.scan });
+  record({ bench: "Today round", measure: "the same round, CPU time of the process", value: o.cpu, unit: "ms", baseline, baselineValue: o.scan });
+  record({ bench: "Today round", measure: `preparing ${readingCount.toLocaleString("en")} readings (part of each round)`, value: o.readings, unit: "ms", baseline, baselineValue: o.scan });
 }
 
 // 7. The farm's own history: one species' curve of days to first roots over 5,000 bags and 50,000 checks in the phone
