@@ -23,13 +23,31 @@ const decodeTable: Record<string, number> = (() => {
   return t;
 })();
 
-/** Upper-cases, drops hyphens and spaces, folds O→0 and I/L→1. */
+/** JavaScript's \s: the characters a typed or pasted code may carry between its symbols. */
+function isSpace(c: number): boolean {
+  return (
+    c === 32 || (c >= 9 && c <= 13) || c === 0xa0 || c === 0x1680 || (c >= 0x2000 && c <= 0x200a) ||
+    c === 0x2028 || c === 0x2029 || c === 0x202f || c === 0x205f || c === 0x3000 || c === 0xfeff
+  );
+}
+
+/** Upper-cases, drops hyphens and spaces, folds O→0 and I/L→1. One pass after the upper-casing, and a stored code
+ *  (already clean) comes back as it is: every bag row and label normalises its code. */
 export function normalizeCrockford(text: string): string {
-  return text
-    .toUpperCase()
-    .replace(/[\s-]+/g, "")
-    .replace(/O/g, "0")
-    .replace(/[IL]/g, "1");
+  const s = text.toUpperCase();
+  let i = 0;
+  for (; i < s.length; i++) {
+    const c = s.charCodeAt(i);
+    if (c === 79 /* O */ || c === 73 /* I */ || c === 76 /* L */ || c === 45 /* - */ || isSpace(c)) break;
+  }
+  if (i === s.length) return s;
+  let out = s.slice(0, i);
+  for (; i < s.length; i++) {
+    const c = s.charCodeAt(i);
+    if (c === 45 || isSpace(c)) continue;
+    out += c === 79 ? "0" : c === 73 || c === 76 ? "1" : s[i];
+  }
+  return out;
 }
 
 function valueOf(symbol: string): number {

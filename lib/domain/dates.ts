@@ -42,7 +42,9 @@ export function isIsoDay(day: string): boolean {
 }
 
 // A round of 10,000 bags asks for the same few hundred (day, offset) pairs; the answer never depends on the time zone.
-const addDaysCache = new Map<string, IsoDay>();
+// Keyed by offset, then day, so a look-up builds no key string.
+const addDaysCache = new Map<number, Map<IsoDay, IsoDay>>();
+let addDaysCacheSize = 0;
 
 // Timestamps of the same minute and zone fall on the same local day: years of checks convert each minute once.
 const dayOfMinute = new Map<string, IsoDay>();
@@ -50,6 +52,7 @@ const dayOfMinute = new Map<string, IsoDay>();
 /** Empties the memos (tests that switch time zones use it to prove the arithmetic itself is zone-proof). */
 export function clearDayArithmeticCache(): void {
   addDaysCache.clear();
+  addDaysCacheSize = 0;
   dayOfMinute.clear();
 }
 
@@ -68,12 +71,18 @@ export function findLocalDayOfTimestamp(at: string): IsoDay {
 
 export function addDaysToIsoDay(day: IsoDay, days: number): IsoDay {
   if (!Number.isInteger(days)) throw new DomainError(`A number of days must be whole (got ${days}).`);
-  const key = `${day}|${days}`;
-  const cached = addDaysCache.get(key);
+  let byDay = addDaysCache.get(days);
+  const cached = byDay?.get(day);
   if (cached !== undefined) return cached;
   const result = formatIsoDay(addDays(parseIsoDay(day), days));
-  if (addDaysCache.size >= 20_000) addDaysCache.clear();
-  addDaysCache.set(key, result);
+  if (addDaysCacheSize >= 20_000) {
+    addDaysCache.clear();
+    addDaysCacheSize = 0;
+    byDay = undefined;
+  }
+  if (!byDay) addDaysCache.set(days, (byDay = new Map()));
+  byDay.set(day, result);
+  addDaysCacheSize++;
   return result;
 }
 

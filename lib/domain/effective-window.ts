@@ -29,6 +29,13 @@ export interface StoreReadings {
  * reads a store by its time index) costs one pass.
  */
 export function sortStoreReadings(times: Float64Array, celsius: Float64Array): StoreReadings {
+  // The usual case (the phone reads by the time index, every value readable) allocates nothing.
+  let clean = true;
+  for (let i = 0; i < times.length && clean; i++) {
+    if (!Number.isFinite(times[i]) || !Number.isFinite(celsius[i])) clean = false;
+    else if (i > 0 && (times[i] < times[i - 1] || (times[i] === times[i - 1] && celsius[i] < celsius[i - 1]))) clean = false;
+  }
+  if (clean) return { times, celsius, outBefore: new Map() };
   const keep: number[] = [];
   let sorted = true;
   for (let i = 0; i < times.length; i++) {
@@ -65,7 +72,17 @@ export function parseReadingTime(at: string): number {
   const leap = year % 4 === 0 && (year % 100 !== 0 || year % 400 === 0);
   const daysInMonth = month === 2 ? (leap ? 29 : 28) : month === 4 || month === 6 || month === 9 || month === 11 ? 30 : 31;
   if (month < 1 || month > 12 || day < 1 || day > daysInMonth || hour > 23 || minute > 59 || second > 59 || year < 1000) return Date.parse(at);
-  return Date.UTC(year, month - 1, day, hour, minute, second, num(at, 20, 23));
+  return daysFromCivil(year, month, day) * dayMs + hour * 3_600_000 + minute * 60_000 + second * 1000 + num(at, 20, 23);
+}
+
+/** Days from 1970-01-01 to a proleptic Gregorian date, as Date.UTC counts them (H. Hinnant's days_from_civil), in a
+ *  fraction of Date.UTC's time: a logger's season is tens of thousands of readings per round. */
+function daysFromCivil(year: number, month: number, day: number): number {
+  const y = month <= 2 ? year - 1 : year;
+  const era = Math.floor(y / 400);
+  const yoe = y - era * 400;
+  const doy = Math.floor((153 * (month > 2 ? month - 3 : month + 9) + 2) / 5) + day - 1;
+  return era * 146_097 + yoe * 365 + Math.floor(yoe / 4) - Math.floor(yoe / 100) + doy - 719_468;
 }
 
 /** Prepares a store's readings once for every bag in it (input order does not matter; °F becomes °C). */

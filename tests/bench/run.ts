@@ -483,6 +483,48 @@ async function benchToday() {
   record({ bench: "Today round", measure: `last check of ${live.length.toLocaleString("en")} bags, one indexed query per bag (loadLastChecks)`, value: perBag, unit: "ms", baseline: "one read of the checks table, newest per bag", baselineValue: onePass });
   record({ bench: "Today round", measure: `lib/domain round over ${BAGS.toLocaleString("en")} bags, rows in memory`, value: domain, unit: "ms", baseline: "plain array scan of the same rows", baselineValue: Math.max(scan, 0.01) });
   record({ bench: "Today round", measure: `the same round with effective windows from ${rows.readings.length.toLocaleString("en")} readings`, value: domain, unit: "ms", baseline: "the same round, readings left out (planned windows)", baselineValue: planned });
+  recordOneRound(await benchOneRound(rows, lastChecks, today), rows.readings.length);
+}
+
+// 5b. The lib/domain round timed one round at a time (a synchronous round inside Promise.all spans several rounds).
+type OneRound = { round: number; cpu: number; readings: number; scan: number };
+async function benchOneRound(
+  rows: import("@/lib/domain/rows/bag-rows").BagRowSources,
+  lastChecks: ReadonlyMap<string, import("@/lib/domain/rows/round-input").LastCheckRow>,
+  today: string,
+): Promise<OneRound> {
+  const { buildRoundFromRows, cadenceFor } = await import("@/lib/domain/rows/round-input");
+  const { prepareReadingsByStore } = await import("@/lib/domain/rows/bag-rows");
+  const sample = (fn: () => unknown, n: number) => {
+    const wall: number[] = [];
+    const cpu: number[] = [];
+    for (let i = 0; i < n; i++) {
+      const c = process.cpuUsage();
+      const t = performance.now();
+      fn();
+      wall.push(performance.now() - t);
+      const d = process.cpuUsage(c);
+      cpu.push((d.user + d.system) / 1000);
+    }
+    return { wall: median(wall), cpu: median(cpu) };
+  };
+  const round = () => buildRoundFromRows(rows, lastChecks, today, cadenceFor(7));
+  round();
+  const r = sample(round, 15);
+  const readings = sample(() => prepareReadingsByStore(rows.readings ?? []), 15).wall;
+  const scan = sample(() => {
+    let n = 0;
+    for (const b of rows.bags) if (b.start_date && b.start_date <= today && !b.pulled_on && !b.discarded_on) n++;
+    return n;
+  }, 15).wall;
+  return { round: r.wall, cpu: r.cpu, readings, scan: Math.max(scan, 0.01) };
+}
+
+function recordOneRound(o: OneRound, readingCount: number) {
+  const baseline = "plain array scan of the same rows";
+  console.log(`  one round at a time (median of 15): ${fmt(o.round)} ms`);
+  record({ bench: "Today round", measure: "the same round, CPU time of one round (process, median of 15)", value: o.cpu, unit: "ms", baseline, baselineValue: o.scan });
+  record({ bench: "Today round", measure: `preparing ${readingCount.toLocaleString("en")} readings (part of each round)`, value: o.readings, unit: "ms", baseline, baselineValue: o.scan });
 }
 
 // 7. The farm's own history: one species' curve of days to first roots over 5,000 bags and 50,000 checks in the phone

@@ -12,6 +12,7 @@ import { findEffectiveWindow, parseReadingTime, prepareStoreReadings, sortStoreR
 import { reconcileProtocol, type ReconciledProtocol } from "@/lib/domain/protocols";
 import { computePullWindow, determineBagState, planBagPhases, type BagPlan, type PullWindow } from "@/lib/domain/schedule";
 import { readProtocolRow } from "@/lib/domain/rows/protocol-row";
+import { TupleMemo } from "@/lib/domain/memo";
 
 // Pure helpers behind the bags table: one row per bag with its state and window worked out on the phone
 // (never stored), plus the filter chips and the sort orders. No React here, so tests run without a DOM.
@@ -67,25 +68,33 @@ export function toTemperatureReadings(readings: readonly Omit<ReadingRow, "store
   return readings.filter((r) => !r.deleted_at).map((r) => ({ at: r.taken_at, value: r.temperature_c, unit: "C" as const }));
 }
 
-/** Each store's readings sorted once, for every bag in it (straight into arrays: a logger season is many rows). */
+/**
+ * Each store's readings sorted once, for every bag in it: counted, then written straight into arrays (a logger season
+ * is many rows). The phone reads a store's readings together, so a run of one store costs no look-up per reading.
+ */
 export function prepareReadingsByStore(readings: readonly ReadingRow[]): Map<string, StoreReadings> {
-  const byStore = new Map<string, ReadingRow[]>();
-  for (const r of readings) {
-    if (r.deleted_at) continue;
-    const list = byStore.get(r.store_id);
-    if (list) list.push(r);
-    else byStore.set(r.store_id, [r]);
+  const counts = new Map<string, number>();
+  for (let i = 0; i < readings.length; ) {
+    const r = readings[i];
+    const id = r.store_id;
+    let n = 0;
+    for (; i < readings.length && readings[i].store_id === id; i++) if (!readings[i].deleted_at) n++;
+    counts.set(id, (counts.get(id) ?? 0) + n);
+  }
+  const filling = new Map<string, { times: Float64Array; celsius: Float64Array; at: number }>();
+  for (const [id, n] of counts) if (n > 0) filling.set(id, { times: new Float64Array(n), celsius: new Float64Array(n), at: 0 });
+  for (let i = 0; i < readings.length; ) {
+    const id = readings[i].store_id;
+    const into = filling.get(id);
+    for (; i < readings.length && readings[i].store_id === id; i++) {
+      const r = readings[i];
+      if (r.deleted_at || !into) continue;
+      into.times[into.at] = parseReadingTime(r.taken_at);
+      into.celsius[into.at++] = r.temperature_c;
+    }
   }
   const out = new Map<string, StoreReadings>();
-  for (const [id, rows] of byStore) {
-    const times = new Float64Array(rows.length);
-    const celsius = new Float64Array(rows.length);
-    for (let i = 0; i < rows.length; i++) {
-      times[i] = parseReadingTime(rows[i].taken_at);
-      celsius[i] = rows[i].temperature_c;
-    }
-    out.set(id, sortStoreReadings(times, celsius));
-  }
+  for (const [id, { times, celsius }] of filling) out.set(id, sortStoreReadings(times, celsius));
   return out;
 }
 
@@ -142,6 +151,28 @@ export interface BagRowSources {
   readings?: readonly ReadingRow[];
 }
 
+/** In a window group's inputs where the stored window is not read (the protocol plans the window). */
+const storedWindowUnread = Symbol("stored window unread");
+
+/**
+ * Everything a bag's window and state are worked out from within one buildBagRows call: its live protocol (by id: the
+ * call reconciles each protocol row once), start day, stored window (read only when the protocol plans none), store
+ * (its kind and readings are the call's), and pulled, sown and discarded days. `today` and the clock are the call's
+ * own, the same for every bag.
+ */
+function windowGroupInputs(protocolId: string | null, bag: BagForWindow, readsStoredWindow: boolean): unknown[] {
+  return [
+    protocolId,
+    bag.start_date,
+    readsStoredWindow ? bag.window_start : storedWindowUnread,
+    readsStoredWindow ? bag.window_end : storedWindowUnread,
+    bag.pulled_on,
+    bag.sown_on,
+    bag.discarded_on,
+    bag.store_id,
+  ];
+}
+
 /** One row per live bag; window and state come from lib/domain for `today`. */
 export function buildBagRows({ bags, lots, protocols, stores, readings = [] }: BagRowSources, today: IsoDay, clock: WindowClock = {}): BagRow[] {
   const lotById = new Map(lots.map((l) => [l.id, l]));
@@ -157,26 +188,36 @@ export function buildBagRows({ bags, lots, protocols, stores, readings = [] }: B
     return ms;
   };
   // Bags started the same day on the same protocol share one phase plan.
-  const plans = new Map<string, BagPlan | null>();
-  const planFor = (protocolId: string, protocol: ReconciledProtocol, startedOn: IsoDay) => {
-    const key = `${protocolId}|${startedOn}`;
-    let plan = plans.get(key);
-    if (plan === undefined) plans.set(key, (plan = planBagPhases(protocol, startedOn)));
-    return plan;
-  };
+  const plans = new TupleMemo<BagPlan>();
+  const planFor = (protocolId: string, protocol: ReconciledProtocol, startedOn: IsoDay) =>
+    plans.find([protocolId, startedOn]) ?? plans.remember([protocolId, startedOn], planBagPhases(protocol, startedOn));
+  // Bags whose window inputs are the same share one window and state (Today's 10,000 bags form a few hundred groups).
+  const groups = new TupleMemo<{ effective: EffectiveWindow; state: BagState }>();
   const rows: BagRow[] = [];
   for (const bag of bags) {
     if (bag.deleted_at) continue;
     const lot = lotById.get(bag.lot_id);
     const protocolId = bag.protocol_id ?? lot?.protocol_id ?? null;
-    const protocol = protocolId ? (reconciled.get(protocolId) ?? null) : null;
     const store = bag.store_id ? storeById.get(bag.store_id) : undefined;
-    const effective = findEffectiveBagWindow(bag, protocol, bag.store_id ? readingsByStore.get(bag.store_id) : null, today, {
-      asOf: clock.asOf,
-      startOfDay: cachedStartOfDay,
-      storeKind: store?.kind ?? null,
-      plan: protocol && protocolId && bag.start_date ? planFor(protocolId, protocol, bag.start_date) : undefined,
-    });
+    const protocol = protocolId ? (reconciled.get(protocolId) ?? null) : null;
+    const plan = protocol && protocolId && bag.start_date ? planFor(protocolId, protocol, bag.start_date) : undefined;
+    const inputs = windowGroupInputs(protocol ? protocolId : null, bag, !plan?.window);
+    let group = groups.find(inputs);
+    if (!group) {
+      const effective = findEffectiveBagWindow(bag, protocol, bag.store_id ? readingsByStore.get(bag.store_id) : null, today, {
+        asOf: clock.asOf,
+        startOfDay: cachedStartOfDay,
+        storeKind: store?.kind ?? null,
+        plan,
+      });
+      const state = determineBagState(
+        { startedOn: bag.start_date ?? null, pulledOn: bag.pulled_on, sownOn: bag.sown_on, discardedOn: bag.discarded_on },
+        effective.window,
+        today,
+      );
+      group = groups.remember(inputs, { effective, state });
+    }
+    const { effective, state } = group;
     rows.push({
       id: bag.id,
       code: bag.code,
@@ -196,11 +237,7 @@ export function buildBagRows({ bags, lots, protocols, stores, readings = [] }: B
       lostColdDays: effective.lostDays,
       windowBasis: effective.basis,
       windowNote: effective.reason,
-      state: determineBagState(
-        { startedOn: bag.start_date ?? null, pulledOn: bag.pulled_on, sownOn: bag.sown_on, discardedOn: bag.discarded_on },
-        effective.window,
-        today,
-      ),
+      state,
       nextMoveOn: effective.nextMoveOn,
       checkEveryDays: bag.check_every_days ?? null,
     });

@@ -68,14 +68,20 @@ export function buildRoundFromRows(
   clock?: WindowClock,
   farmWindows?: ReadonlyMap<string, Pick<FarmWindow, "dailyFromDay">>,
 ): TodaysRound {
-  const bagById = new Map(sources.bags.map((b) => [b.id, b]));
+  // Only bags that can be in the cold on `today` (started by then, not pulled, sown, discarded or deleted): every
+  // other bag's state is settled without its window, so its window is not worked out.
+  const coldBags = sources.bags.filter((b) => !b.deleted_at && !b.discarded_on && !b.sown_on && !b.pulled_on && !!b.start_date && b.start_date <= today);
+  const bagById = new Map(coldBags.map((b) => [b.id, b]));
+  // The farm's own history of each species (keyed as lib/domain/rows/farm-history-rows speciesKey), looked up once.
+  const historyOf = new Map<string, Pick<FarmWindow, "dailyFromDay"> | null>();
   const roundBags: RoundBag[] = [];
-  for (const row of buildBagRows(sources, today, clock)) {
+  for (const row of buildBagRows({ ...sources, bags: coldBags }, today, clock)) {
     if (!inTheCold.has(row.state)) continue;
     const bag = toRoundBag(row, bagById.get(row.id), lastChecks.get(row.id) ?? null);
-    // The farm's own history of this species (keyed as lib/domain/rows/farm-history-rows speciesKey).
-    const history = farmWindows?.get(row.species.trim().toLowerCase()) ?? null;
-    roundBags.push(history ? { ...bag, rootsWatchFrom: findRootsWatchDay(row.startedOn, history) } : bag);
+    let history = historyOf.get(row.species);
+    if (history === undefined) historyOf.set(row.species, (history = farmWindows?.get(row.species.trim().toLowerCase()) ?? null));
+    if (history) bag.rootsWatchFrom = findRootsWatchDay(row.startedOn, history);
+    roundBags.push(bag);
   }
   return buildTodaysRound(roundBags, today, cadence);
 }
