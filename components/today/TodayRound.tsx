@@ -78,7 +78,7 @@ export function TodayRound() {
           {data && data.fetched && data.firstSteps ? "A new farm: four steps to the first bag" : data && (data.fetched || data.bagCount > 0) ? data.headline : "Today\u2019s round"}
         </h1>
         <p className="min-h-[1.5em] text-label text-ink-soft">{dayLabel ? `Today\u2019s round · ${dayLabel}` : "Today\u2019s round"}</p>
-        {data && (data.fetched || data.bagCount > 0) ? (
+        {data && !data.firstSteps && (data.fetched || data.bagCount > 0) ? (
           <p className="text-body text-ink-soft" data-testid="round-count">
             {describeRoundCount(data.round.counts.due, data.urgent, data.sowQueue)}
           </p>
