@@ -5,7 +5,8 @@ import type { Role } from "@/lib/schemas/vocabulary";
 import { env } from "./env";
 import { getDb } from "./db";
 import { NextResponse } from "next/server";
-import { SESSION_COOKIE, createSession, readSession, type IssuedSession } from "./sessions";
+import { SESSION_COOKIE, createSession, renewIfDue, verifySessionToken, type IssuedSession } from "./sessions";
+import { withPrepared } from "./prepared";
 import { farmsOf } from "./accounts";
 
 // Every handler that touches a farm starts here: who is asking, on which farm, with which role,
@@ -69,21 +70,30 @@ export function assertSameOrigin(req: Request): void {
   }
 }
 
+// The session, its member, person and farm in one statement, prepared once per connection: it runs on every
+// request. Nothing about a session or membership is kept in memory between requests, so a sign-out, a revoked
+// session, a role change or a removed member counts from the very next request, whichever process serves it.
+const MEMBER_SQL = `SELECT s.id AS "sessionId", s.expires_at AS "expiresAt", u.id AS "userId", u.name AS "name",
+  u.email AS "email", f.id AS "farmId", f.name AS "farmName", m.role AS "role"
+FROM sessions s
+JOIN memberships m ON m.farm_id = s.farm_id AND m.user_id = s.user_id
+JOIN users u ON u.id = s.user_id
+JOIN farms f ON f.id = s.farm_id
+WHERE s.id = ? AND s.revoked_at IS NULL AND m.deleted_at IS NULL AND u.deleted_at IS NULL AND f.deleted_at IS NULL
+LIMIT 1`;
+type MemberRow = Omit<Member, "renewed" | "role"> & { role: string; expiresAt: string };
+
 /** The signed-in member or null (pages use this to decide between the app and the sign-in screen). */
-export async function findMember(token: string | null): Promise<Member | null> {
-  const active = await readSession(token);
-  if (!active) return null;
-  const { session } = active;
-  const row = await getDb()("memberships as m")
-    .join("users as u", "u.id", "m.user_id")
-    .join("farms as f", "f.id", "m.farm_id")
-    .where({ "m.farm_id": session.farm_id, "m.user_id": session.user_id })
-    .whereNull("m.deleted_at")
-    .whereNull("u.deleted_at")
-    .whereNull("f.deleted_at")
-    .first("u.id as userId", "u.name", "u.email", "f.id as farmId", "f.name as farmName", "m.role");
-  if (!row) return null;
-  return { ...row, role: row.role as Role, sessionId: session.id, renewed: active.renewed };
+export async function findMember(token: string | null, now: Date = new Date()): Promise<Member | null> {
+  if (!token) return null;
+  const sessionId = await verifySessionToken(token);
+  if (!sessionId) return null;
+  const db = getDb();
+  const [row] = await withPrepared(db, async (query) => query<MemberRow>(MEMBER_SQL, [sessionId]));
+  // The row is the authority on expiry (a session can end before its token says).
+  if (!row || Date.parse(row.expiresAt) <= now.getTime()) return null;
+  const { expiresAt, ...member } = row;
+  return { ...member, role: row.role as Role, renewed: await renewIfDue(db, sessionId, expiresAt, now) };
 }
 
 /**

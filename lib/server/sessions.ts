@@ -62,16 +62,18 @@ export async function readSession(token: string | null | undefined, now: Date = 
   if (!session || session.revoked_at) return null;
   if (Date.parse(session.expires_at) <= now.getTime()) return null;
 
-  const renewedAt = Date.parse(session.expires_at) - SESSION_DAYS * DAY_MS;
-  if (now.getTime() - renewedAt < RENEW_AFTER_MS) return { session, renewed: null };
+  const renewed = await renewIfDue(db, sessionId, session.expires_at, now);
+  return renewed ? { session: { ...session, last_seen_at: now.toISOString(), expires_at: renewed.expiresAt }, renewed } : { session, renewed: null };
+}
 
+/** Pushes a live session out to a fresh 30 days (new token) once a day of use has passed since it was last renewed. */
+export async function renewIfDue(db: Knex, sessionId: string, expiresAt: string, now: Date = new Date()): Promise<IssuedSession | null> {
+  const renewedAt = Date.parse(expiresAt) - SESSION_DAYS * DAY_MS;
+  if (now.getTime() - renewedAt < RENEW_AFTER_MS) return null;
   const expires = new Date(now.getTime() + SESSION_DAYS * DAY_MS);
   const patch = { last_seen_at: now.toISOString(), expires_at: expires.toISOString() };
   await db("sessions").where({ id: sessionId }).whereNull("revoked_at").update(patch);
-  return {
-    session: { ...session, ...patch },
-    renewed: { token: await signSessionToken(sessionId, expires), sessionId, expiresAt: patch.expires_at },
-  };
+  return { token: await signSessionToken(sessionId, expires), sessionId, expiresAt: patch.expires_at };
 }
 
 export async function revokeSession(db: Knex | Knex.Transaction, sessionId: string, now: Date = new Date()): Promise<void> {
