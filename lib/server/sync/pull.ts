@@ -1,7 +1,7 @@
 import "server-only";
 import type { Knex } from "knex";
 import { withPrepared, type Query } from "@/lib/server/prepared";
-import { parseRow } from "./rows";
+import { parseRowInPlace } from "./rows";
 
 // The pull feed: every row of the member's farm written after a cursor, in seq order, tombstones
 // included, one page at a time. The cursor is the farm's change counter (farms.seq).
@@ -39,7 +39,7 @@ const atSql = Object.fromEntries(pullTables.map((t) => [t, `${fromClause(t)} AND
 const FARM_SQL = "SELECT id, name, last_frost_date, location_note, temperature_unit, weekly_check_days, timezone, seq FROM farms WHERE id = ? LIMIT 1";
 
 function present(table: PullTable, raw: Record<string, unknown>): Change {
-  const row = parseRow(table, raw);
+  const row = parseRowInPlace(table, raw); // rows fresh from this page's reads
   if (table === "photos") {
     row.url = `/api/uploads/${String(row.id)}`;
     delete row.path; // where the file sits on the server's disk is nobody's business

@@ -8,7 +8,11 @@ type Row = Record<string, unknown>;
 
 /** A stored row → the shape the phone keeps (and the pull feed sends). */
 export function parseRow(table: string, row: Row): Row {
-  const out: Row = { ...row };
+  return parseRowInPlace(table, { ...row });
+}
+
+/** parseRow on a row nobody else holds (fresh from the database), without copying it. */
+export function parseRowInPlace(table: string, out: Row): Row {
   for (const col of jsonColumns[table as EffectTable] ?? []) {
     const v = out[col];
     if (typeof v === "string") {
