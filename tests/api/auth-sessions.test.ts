@@ -1,10 +1,11 @@
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { SignJWT } from "jose";
 import { freshDatabase } from "../support/db";
 import { memberRequest, signedInMember } from "../support/auth";
 import { requireMember, assertSameOrigin, readSessionCookie, sessionCookie } from "@/lib/server/auth";
 import { createSession, readSession, revokeAllSessions, revokeSession, SESSION_COOKIE } from "@/lib/server/sessions";
 import { env } from "@/lib/server/env";
+import { signSessionToken, verifySessionToken } from "@/lib/server/session-token";
 import { AppError } from "@/lib/errors";
 import { actionTable, mutationNames, mutationTable, type ActionName, type MutationName } from "@/lib/schemas/mutations";
 import { roles, type Role } from "@/lib/schemas/vocabulary";
@@ -64,6 +65,21 @@ describe("sessions and requireMember", () => {
     const fresh = await createSession(ctx.db, { userId: m.userId, farmId: m.farmId });
     await ctx.db("sessions").where({ id: fresh.sessionId }).update({ expires_at: new Date(Date.now() - 1000).toISOString() });
     expect(await statusOf(requireMember(withCookie(fresh.token)))).toBe(401);
+  });
+
+  it("remembers a verified token only until its expiry", async () => {
+    const m = await signedInMember(ctx.db, { role: "helper" });
+    const soon = await createSession(ctx.db, { userId: m.userId, farmId: m.farmId });
+    const token = await signSessionToken(soon.sessionId, new Date(Date.now() + 2_000));
+    expect(await verifySessionToken(token)).toBe(soon.sessionId);
+    expect(await verifySessionToken(token)).toBe(soon.sessionId); // the remembered answer
+    vi.useFakeTimers({ now: Date.now() + 3_000, toFake: ["Date"] });
+    try {
+      expect(await verifySessionToken(token)).toBeNull();
+      expect(await statusOf(requireMember(withCookie(token)))).toBe(401);
+    } finally {
+      vi.useRealTimers();
+    }
   });
 
   it("renews a session in use after a day (rolling 30 days), not before", async () => {
