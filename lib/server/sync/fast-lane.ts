@@ -51,6 +51,7 @@ function writeChunk(prepare: Prepare, member: PushMember, deviceId: string, chun
   if (!farm) throw new Error(`farm ${farmId} missing`);
   const seqBefore = Number(farm.seq);
   let seq = seqBefore;
+  const farmOf = rowFarms(prepare, chunk);
   const record = prepare(RECORD_SQL);
   const outcomes: Outcome[] = [];
   for (const m of chunk) {
@@ -67,7 +68,7 @@ function writeChunk(prepare: Prepare, member: PushMember, deviceId: string, chun
     let row: { table: "checks" | "readings"; values: RowValues } | null = null;
     let refused: RejectedMutation["error"] | null = null;
     try {
-      row = newRow(prepare, farmId, m, admit(member, m));
+      row = newRow(prepare, farmOf, farmId, m, admit(member, m));
     } catch (err) {
       refused = refusalOf(m.name, err);
       if (!refused) throw err;
@@ -77,6 +78,7 @@ function writeChunk(prepare: Prepare, member: PushMember, deviceId: string, chun
       const stored = stampedRow(row.table, row.values, member, at, ++seq);
       const columns = Object.keys(stored);
       prepare(`INSERT INTO ${row.table} (${columns.map((c) => `"${c}"`).join(", ")}) VALUES (${columns.map(() => "?").join(", ")})`).run(columns.map((c) => bindable(stored[c])));
+      farmOf.set(row.table, row.values.id, farmId);
     }
     seen.set(m.id, { farm_id: farmId, outcome: refused ? "rejected" : "applied" });
     outcomes.push(refused ?? "applied");
@@ -90,20 +92,50 @@ function writeChunk(prepare: Prepare, member: PushMember, deviceId: string, chun
  * mutation id, a reading already taken at that moment in that store); throws the refusal. The general path's
  * insertRow rules, in its order.
  */
-function newRow(prepare: Prepare, farmId: string, m: Mutation, args: unknown): { table: "checks" | "readings"; values: RowValues } | null {
+function newRow(prepare: Prepare, farmOf: RowFarms, farmId: string, m: Mutation, args: unknown): { table: "checks" | "readings"; values: RowValues } | null {
   const [effect] = effectsOf(m.name, args as never);
   if (effect?.op !== "insert" || (effect.table !== "checks" && effect.table !== "readings")) throw new Error(`${m.name} is not a lane mutation`);
   const { table, row } = effect;
-  const existing = prepare(`SELECT farm_id FROM ${table} WHERE id = ?`).get(row.id) as { farm_id: string } | undefined;
-  if (existing) {
-    if (existing.farm_id !== farmId) throw notFound(labelOf(table)); // another farm's row is reported as missing
+  const existing = farmOf.get(table, row.id);
+  if (existing !== null) {
+    if (existing !== farmId) throw notFound(labelOf(table)); // another farm's row is reported as missing
     return null;
   }
   for (const [column, target] of Object.entries(rowReferences[table] ?? {})) {
     const id = row[column];
     if (id === null || id === undefined) continue;
-    if (!prepare(`SELECT 1 FROM ${target} WHERE id = ? AND farm_id = ?`).get(bindable(id), farmId)) throw notFound(labelOf(target));
+    if (farmOf.get(target, String(id)) !== farmId) throw notFound(labelOf(target));
   }
   if (table === "readings" && prepare("SELECT 1 FROM readings WHERE store_id = ? AND taken_at = ?").get(bindable(row.store_id), bindable(row.taken_at))) return null;
   return { table, values: row };
+}
+
+type RowFarms = { get: (table: string, id: string) => string | null; set: (table: string, id: string, farmId: string) => void };
+
+/**
+ * Which farm each row a chunk names belongs to (null: no such row), read once and kept up to date with the
+ * chunk's own inserts. Only checks and readings change inside the lane, so the bags and stores it refers to
+ * are read once per chunk; the rows the chunk adds are looked up in one query per table.
+ */
+function rowFarms(prepare: Prepare, chunk: Mutation[]): RowFarms {
+  const known = new Map<string, string | null>();
+  const key = (table: string, id: string) => `${table}\u0000${id}`;
+  for (const table of ["checks", "readings"]) {
+    const ids = chunk.map((m) => (m.args as { id?: unknown } | null)?.id).filter((id): id is string => typeof id === "string");
+    for (const id of ids) known.set(key(table, id), null);
+    const found = prepare(`SELECT id, farm_id FROM ${table} WHERE id IN (SELECT value FROM json_each(?))`).all(JSON.stringify(ids)) as { id: string; farm_id: string }[];
+    for (const r of found) known.set(key(table, r.id), r.farm_id);
+  }
+  return {
+    get(table, id) {
+      const k = key(table, id);
+      let farm = known.get(k);
+      if (farm === undefined) {
+        farm = (prepare(`SELECT farm_id FROM ${table} WHERE id = ?`).get(id) as { farm_id: string } | undefined)?.farm_id ?? null;
+        known.set(k, farm);
+      }
+      return farm;
+    },
+    set: (table, id, farmId) => void known.set(key(table, id), farmId),
+  };
 }
