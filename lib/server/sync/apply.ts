@@ -37,13 +37,15 @@ export type ApplyOptions = { now?: () => Date; /** false: the general path only 
 export async function applyPush(db: Knex, member: PushMember, push: PushRequest, options: ApplyOptions = {}): Promise<PushResult> {
   const now = options.now ?? (() => new Date());
   const result: PushResult = { applied: [], rejected: [] };
-  // One look-up for the whole batch: which ids were seen before (replays, earlier refusals).
+  // Which ids were seen before (replays, earlier refusals): one look-up per general chunk, for the ids this push
+  // has not met yet (the fast lane reads its own inside its transaction).
   const seen = new Map<string, Seen>();
-  const ids = push.mutations.map((m) => m.id);
-  for (let i = 0; i < ids.length; i += 500) {
-    const rows: (Seen & { id: string })[] = await db("applied_mutations").whereIn("id", ids.slice(i, i + 500)).select("id", "farm_id", "outcome");
+  const lookUp = async (chunk: Mutation[]) => {
+    const ids = [...new Set(chunk.map((m) => m.id))].filter((id) => !seen.has(id));
+    if (!ids.length) return;
+    const rows: (Seen & { id: string })[] = await db("applied_mutations").whereIn("id", ids).select("id", "farm_id", "outcome");
     for (const r of rows) seen.set(r.id, r);
-  }
+  };
   const report = (chunk: Mutation[], outcomes: Outcome[]) =>
     chunk.forEach((m, j) => {
       const outcome = outcomes[j];
@@ -61,7 +63,7 @@ export async function applyPush(db: Knex, member: PushMember, push: PushRequest,
     while (j < list.length && j - i < (fast ? LANE_CHUNK : CHUNK) && inLane(list[j]) === fast) j++;
     const chunk = list.slice(i, j);
     i = j;
-    const outcomes = (fast && (await applyLaneChunk(db, member, push.deviceId, chunk, now))) || (await applyChunk(db, member, push.deviceId, chunk, now, seen));
+    const outcomes = (fast && (await applyLaneChunk(db, member, push.deviceId, chunk, now))) || (await lookUp(chunk), await applyChunk(db, member, push.deviceId, chunk, now, seen));
     if (fast) for (const [k, m] of chunk.entries()) if (outcomes[k] === "applied" || !seen.has(m.id)) seen.set(m.id, { farm_id: member.farmId, outcome: outcomes[k] === "applied" ? "applied" : "rejected" });
     report(chunk, outcomes);
     // Let pulls and other requests in between chunks of a big push.
