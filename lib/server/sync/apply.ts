@@ -61,11 +61,18 @@ export async function applyPush(db: Knex, member: PushMember, push: PushRequest,
     const fast = inLane(list[i]);
     let j = i + 1;
     while (j < list.length && j - i < (fast ? LANE_CHUNK : CHUNK) && inLane(list[j]) === fast) j++;
-    const chunk = list.slice(i, j);
-    i = j;
-    const outcomes = (fast && (await applyLaneChunk(db, member, push.deviceId, chunk, now))) || (await lookUp(chunk), await applyChunk(db, member, push.deviceId, chunk, now, seen));
-    if (fast) for (const [k, m] of chunk.entries()) if (outcomes[k] === "applied" || !seen.has(m.id)) seen.set(m.id, { farm_id: member.farmId, outcome: outcomes[k] === "applied" ? "applied" : "rejected" });
+    let chunk = list.slice(i, j);
+    let outcomes = fast ? await applyLaneChunk(db, member, push.deviceId, chunk, now) : null;
+    if (outcomes) {
+      chunk = chunk.slice(0, outcomes.length); // the lane stops at its time budget; the rest is the next chunk
+      for (const [k, m] of chunk.entries()) if (outcomes[k] === "applied" || !seen.has(m.id)) seen.set(m.id, { farm_id: member.farmId, outcome: outcomes[k] === "applied" ? "applied" : "rejected" });
+    } else {
+      chunk = chunk.slice(0, CHUNK);
+      await lookUp(chunk);
+      outcomes = await applyChunk(db, member, push.deviceId, chunk, now, seen);
+    }
     report(chunk, outcomes);
+    i += chunk.length;
     // Let pulls and other requests in between chunks of a big push.
     if (fast && i < list.length) await new Promise((resolve) => setImmediate(resolve));
   }

@@ -20,8 +20,13 @@ export type Outcome = "applied" | RejectedMutation["error"];
 /** Mutations the lane applies: a single insert with no guard and no special row rule beyond a reading's twin. */
 export const laneNames: ReadonlySet<MutationName> = new Set<MutationName>(["check.record", "reading.record"]);
 
-/** About 25 µs a mutation: well under 25 ms of holding the event loop and the database per chunk. */
-export const LANE_CHUNK = 500;
+/** The most mutations a lane chunk takes; it commits sooner when its time budget is spent. */
+export const LANE_CHUNK = 1000;
+/**
+ * How long a chunk may hold the event loop and the write lock: pulls and other requests are served between
+ * chunks, each of whose queries may wait for one chunk. Well under the ~25 ms a request may be held up by.
+ */
+export const LANE_BUDGET_MS = 8;
 
 const RECORD_SQL =
   "INSERT INTO applied_mutations (id, farm_id, user_id, device_id, name, applied_at, outcome, error) VALUES (?, ?, ?, ?, ?, ?, ?, ?) " +
@@ -31,7 +36,10 @@ const RECORD_SQL =
 
 type Seen = { farm_id: string; outcome: string };
 
-/** Applies a chunk of lane mutations; null when it rolled back on an unexpected error (nothing written). */
+/**
+ * Applies lane mutations from the start of `chunk` until its time budget is spent: the outcomes of those it
+ * took (at least one), or null when it rolled back on an unexpected error (nothing written).
+ */
 export async function applyLaneChunk(db: Knex, member: PushMember, deviceId: string, chunk: Mutation[], now: () => Date): Promise<Outcome[] | null> {
   try {
     return await withRawSqlite(db, (conn, prepare) => conn.transaction(() => writeChunk(prepare, member, deviceId, chunk, now)).immediate());
@@ -54,7 +62,9 @@ function writeChunk(prepare: Prepare, member: PushMember, deviceId: string, chun
   const farmOf = rowFarms(prepare, chunk);
   const record = prepare(RECORD_SQL);
   const outcomes: Outcome[] = [];
+  const started = performance.now();
   for (const m of chunk) {
+    if (outcomes.length && performance.now() - started > LANE_BUDGET_MS) break;
     const at = now().toISOString();
     const before = seen.get(m.id);
     if (before && before.farm_id !== farmId) {
