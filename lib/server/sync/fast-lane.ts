@@ -59,7 +59,7 @@ function writeChunk(prepare: Prepare, member: PushMember, deviceId: string, chun
   if (!farm) throw new Error(`farm ${farmId} missing`);
   const seqBefore = Number(farm.seq);
   let seq = seqBefore;
-  const farmOf = rowFarms(prepare, chunk);
+  const farmOf = rowFarms(prepare);
   const record = prepare(RECORD_SQL);
   const outcomes: Outcome[] = [];
   const started = performance.now();
@@ -123,19 +123,13 @@ function newRow(prepare: Prepare, farmOf: RowFarms, farmId: string, m: Mutation,
 type RowFarms = { get: (table: string, id: string) => string | null; set: (table: string, id: string, farmId: string) => void };
 
 /**
- * Which farm each row a chunk names belongs to (null: no such row), read once and kept up to date with the
- * chunk's own inserts. Only checks and readings change inside the lane, so the bags and stores it refers to
- * are read once per chunk; the rows the chunk adds are looked up in one query per table.
+ * Which farm each row a chunk names belongs to (null: no such row), read once per chunk and kept up to date with
+ * the chunk's own inserts. Only checks and readings change inside the lane, so the bags and stores it refers
+ * to are read once per chunk.
  */
-function rowFarms(prepare: Prepare, chunk: Mutation[]): RowFarms {
+function rowFarms(prepare: Prepare): RowFarms {
   const known = new Map<string, string | null>();
   const key = (table: string, id: string) => `${table}\u0000${id}`;
-  for (const table of ["checks", "readings"]) {
-    const ids = chunk.map((m) => (m.args as { id?: unknown } | null)?.id).filter((id): id is string => typeof id === "string");
-    for (const id of ids) known.set(key(table, id), null);
-    const found = prepare(`SELECT id, farm_id FROM ${table} WHERE id IN (SELECT value FROM json_each(?))`).all(JSON.stringify(ids)) as { id: string; farm_id: string }[];
-    for (const r of found) known.set(key(table, r.id), r.farm_id);
-  }
   return {
     get(table, id) {
       const k = key(table, id);
