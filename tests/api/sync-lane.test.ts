@@ -140,6 +140,28 @@ describe.skipIf(testDialect !== "sqlite")("push fast lane", () => {
     expect(refusals / total).toBeGreaterThan(0.01);
   }, 120_000);
 
+  it("gives the same for a full push of 1,000, which the lane splits into chunks at its time budget", async () => {
+    const files = ["lane-full", "general-full"].map((side) => path.join(dir, `${side}.sqlite`));
+    for (const f of files) fs.copyFileSync(base, f);
+    const [lane, general] = files.map(open);
+    try {
+      // Wider pools than above, so most of the push is applied and the lane has real work to split.
+      const wide = fc.tuple(fc.integer({ min: 1000, max: 1700 }).map(id), check, fc.integer({ min: 2000, max: 2900 }).map(id))
+        .map(([mid, a, rid]) => m(mid, "check.record", { ...a, id: rid }));
+      const mutations = fc.sample(fc.oneof({ weight: 9, arbitrary: wide }, { weight: 1, arbitrary: anyMutation }), { numRuns: 1000, seed: 17 });
+      const push = { deviceId: "phone-1", mutations } as PushRequest;
+      const a = await applyPush(lane, owner, push, { now: clock() });
+      const b = await applyPush(general, owner, push, { now: clock(), lane: false });
+      expect(a).toEqual(b);
+      expect(a.applied.length).toBeGreaterThan(500);
+      expect(a.rejected.length).toBeGreaterThan(10);
+      expect(await everything(lane)).toEqual(await everything(general));
+    } finally {
+      await lane.destroy();
+      await general.destroy();
+    }
+  }, 60_000);
+
   it("rolls a chunk back on an unexpected error and applies it mutation by mutation through the general path", async () => {
     const files = ["lane-broken", "general-plain"].map((side) => path.join(dir, `${side}.sqlite`));
     for (const f of files) fs.copyFileSync(base, f);
