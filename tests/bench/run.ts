@@ -57,12 +57,12 @@ const samples = async (n: number, fn: () => unknown | Promise<unknown>) => {
 
 const CHECKS = 10_000;
 
-async function benchPush() {
+/** A fresh SQLite file with an owner, a lot and a bag; `push` sends mutations through POST /api/sync/push. */
+async function pushBenchFarm(name: string) {
   const { useDatabase } = await import("@/lib/server/db");
   const { signedInMember, memberRequest } = await import("../support/auth");
   const { POST } = await import("@/app/api/sync/push/route");
-  const file = path.join(TMP, "push.sqlite");
-  const db = await useDatabase(`file:${file}`);
+  const db = await useDatabase(`file:${path.join(TMP, name)}`);
   await db.migrate.latest();
   const owner = await signedInMember(db, { role: "owner" });
   const ctx = { params: Promise.resolve({}) };
@@ -76,10 +76,18 @@ async function benchPush() {
   const lotId = randomUUID();
   const bagId = randomUUID();
   await push([m("lot.create", { id: lotId, species: "Asclepias tuberosa", year: 2025, quantity: 400 }), m("bag.create", { id: bagId, code: "7K3Q9M-X", lot_id: lotId, start_date: "2026-11-01" })]);
+  /** `CHECKS` check mutations of the bag, a minute apart from minute `from`. */
+  const checks = (from = 0) =>
+    Array.from({ length: CHECKS }, (_, i) =>
+      m("check.record", { id: randomUUID(), bag_id: bagId, checked_at: new Date(Date.UTC(2026, 10, 1) + (from + i) * 60_000).toISOString(), moisture: "damp", mould: "clean", sprouts: "none", actions: [] }),
+    );
+  return { db, owner, ctx, push, bagId, checks, memberRequest };
+}
 
-  const mutations = Array.from({ length: CHECKS }, (_, i) =>
-    m("check.record", { id: randomUUID(), bag_id: bagId, checked_at: new Date(Date.UTC(2026, 10, 1) + i * 60_000).toISOString(), moisture: "damp", mould: "clean", sprouts: "none", actions: [] }),
-  );
+async function benchPush() {
+  const { useDatabase } = await import("@/lib/server/db");
+  const { db, owner, push, bagId, checks } = await pushBenchFarm("push.sqlite");
+  const mutations = checks();
   const counts = async () => {
     const names = (await db.raw("SELECT name FROM sqlite_master WHERE type='table' AND name NOT LIKE 'sqlite_%' AND name NOT LIKE 'knex_%'")) as { name: string }[];
     const out: Record<string, number> = {};
@@ -162,6 +170,35 @@ async function benchPush() {
   record({ bench: "sync push", measure: what, value: pushMs, unit: "ms", baseline: fairName, baselineValue: fairMs });
   record({ bench: "sync push", measure: "per check mutation", value: (pushMs * 1000) / CHECKS, unit: "µs", baseline: "fair floor per mutation", baselineValue: (fairMs * 1000) / CHECKS });
   record({ bench: "sync push", measure: "per check mutation", value: (pushMs * 1000) / CHECKS, unit: "µs", baseline: "old floor: raw insert of the check rows only", baselineValue: (rawMs * 1000) / CHECKS });
+  await benchPullsDuringPush();
+}
+
+/**
+ * A big push must not starve the farm's other phones: p99 of pulls (route handlers in this process, one after
+ * another, as the server's event loop would take them) while a 10,000-check push applies, against p99 of the
+ * same pulls with nothing else running, on the same database in the same run.
+ */
+async function benchPullsDuringPush() {
+  const { GET } = await import("@/app/api/sync/pull/route");
+  const { db, owner, ctx, push, checks, memberRequest } = await pushBenchFarm("push-pulls.sqlite");
+  await push(checks().slice(0, 1000)); // the pulls read a full page in both runs
+  const pullOnce = async () => {
+    const res = await GET(memberRequest("/api/sync/pull?since=0&limit=100", owner), ctx);
+    if (res.status !== 200) throw new Error(`pull ${res.status}`);
+    await res.arrayBuffer();
+  };
+  const p99 = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.min(xs.length - 1, Math.floor(xs.length * 0.99))];
+  const idle = await samples(300, pullOnce);
+  const during: number[] = [];
+  let pushing = true;
+  const mutations = checks(CHECKS);
+  const pushed = (async () => {
+    for (let i = 0; i < mutations.length; i += 1000) await push(mutations.slice(i, i + 1000));
+  })().finally(() => (pushing = false));
+  while (pushing) during.push(await time(pullOnce));
+  await pushed;
+  await db.destroy();
+  record({ bench: "sync push", measure: `p99 of pulls during a 10,000-check push (${during.length} pulls)`, value: p99(during), unit: "ms", baseline: `p99 of the same pulls with no push running (${idle.length} pulls)`, baselineValue: p99(idle) });
 }
 
 // ---------------------------------------------------------------------------------------------------------

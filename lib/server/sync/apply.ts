@@ -12,6 +12,8 @@ import { vocabularyLabels, type Role } from "@/lib/schemas/vocabulary";
 import { assertWellFormedText, fieldsOf } from "@/lib/server/http";
 import { isUniqueViolation } from "@/lib/server/db-errors";
 import { nextSeq } from "@/lib/server/seq";
+import { dialectOf } from "@/lib/server/db-config";
+import { applyLaneChunk, laneNames, LANE_CHUNK, type Outcome } from "./fast-lane";
 import { auditText, parseRow, serializeRow } from "./rows";
 
 // Applies a phone's pushed mutations. Each runs in its own transaction together with its
@@ -30,41 +32,71 @@ type Seen = { farm_id: string; outcome: string };
 
 type Ctx = { trx: Knex.Transaction; member: PushMember; mutationId: string; at: string };
 
-export async function applyPush(db: Knex, member: PushMember, push: PushRequest, now: () => Date = () => new Date()): Promise<PushResult> {
+export type ApplyOptions = { now?: () => Date; /** false: the general path only (tests compare the two). */ lane?: boolean };
+
+export async function applyPush(db: Knex, member: PushMember, push: PushRequest, options: ApplyOptions = {}): Promise<PushResult> {
+  const now = options.now ?? (() => new Date());
   const result: PushResult = { applied: [], rejected: [] };
-  // One look-up for the whole batch: which ids were seen before (replays, earlier refusals).
+  // Which ids were seen before (replays, earlier refusals): one look-up per general chunk, for the ids this push
+  // has not met yet (the fast lane reads its own inside its transaction).
   const seen = new Map<string, Seen>();
-  const ids = push.mutations.map((m) => m.id);
-  for (let i = 0; i < ids.length; i += 500) {
-    const rows: (Seen & { id: string })[] = await db("applied_mutations").whereIn("id", ids.slice(i, i + 500)).select("id", "farm_id", "outcome");
+  const lookUp = async (chunk: Mutation[]) => {
+    const ids = [...new Set(chunk.map((m) => m.id))].filter((id) => !seen.has(id));
+    if (!ids.length) return;
+    const rows: (Seen & { id: string })[] = await db("applied_mutations").whereIn("id", ids).select("id", "farm_id", "outcome");
     for (const r of rows) seen.set(r.id, r);
-  }
-  // Commits are the slow part on SQLite: a chunk shares one outer transaction, and each mutation
-  // runs in its own nested transaction (a savepoint) inside it, so a refused one rolls back alone.
-  for (let i = 0; i < push.mutations.length; i += CHUNK) {
-    const chunk = push.mutations.slice(i, i + CHUNK);
-    const outcomes = await db.transaction(async (outer) => {
-      const list: ("applied" | RejectedMutation["error"])[] = [];
-      for (const m of chunk) {
-        const outcome = await applyOne(outer, member, push.deviceId, m, now().toISOString(), seen);
-        // The same id twice in one push: the second is a replay of the first.
-        seen.set(m.id, { farm_id: member.farmId, outcome: outcome === "applied" ? "applied" : "rejected" });
-        list.push(outcome);
-      }
-      return list;
-    });
+  };
+  const report = (chunk: Mutation[], outcomes: Outcome[]) =>
     chunk.forEach((m, j) => {
       const outcome = outcomes[j];
       if (outcome === "applied") result.applied.push(m.id);
       else result.rejected.push({ id: m.id, error: outcome });
     });
+  // Runs of checks and readings take the fast lane on SQLite (lib/server/sync/fast-lane.ts); the rest, and
+  // everything on PostgreSQL, the general path below.
+  const lane = (options.lane ?? true) && dialectOf(db) === "sqlite";
+  const inLane = (m: Mutation) => lane && laneNames.has(m.name);
+  const list = push.mutations;
+  for (let i = 0; i < list.length; ) {
+    const fast = inLane(list[i]);
+    let j = i + 1;
+    while (j < list.length && j - i < (fast ? LANE_CHUNK : CHUNK) && inLane(list[j]) === fast) j++;
+    let chunk = list.slice(i, j);
+    let outcomes = fast ? await applyLaneChunk(db, member, push.deviceId, chunk, now) : null;
+    if (outcomes) {
+      chunk = chunk.slice(0, outcomes.length); // the lane stops at its time budget; the rest is the next chunk
+      for (const [k, m] of chunk.entries()) if (outcomes[k] === "applied" || !seen.has(m.id)) seen.set(m.id, { farm_id: member.farmId, outcome: outcomes[k] === "applied" ? "applied" : "rejected" });
+    } else {
+      chunk = chunk.slice(0, CHUNK);
+      await lookUp(chunk);
+      outcomes = await applyChunk(db, member, push.deviceId, chunk, now, seen);
+    }
+    report(chunk, outcomes);
+    i += chunk.length;
+    // Let pulls and other requests in between chunks of a big push.
+    if (fast && i < list.length) await new Promise((resolve) => setImmediate(resolve));
   }
   return result;
 }
 
+// Commits are the slow part on SQLite: a chunk shares one outer transaction, and each mutation
+// runs in its own nested transaction (a savepoint) inside it, so a refused one rolls back alone.
+function applyChunk(db: Knex, member: PushMember, deviceId: string, chunk: Mutation[], now: () => Date, seen: Map<string, Seen>): Promise<Outcome[]> {
+  return db.transaction(async (outer) => {
+    const list: Outcome[] = [];
+    for (const m of chunk) {
+      const outcome = await applyOne(outer, member, deviceId, m, now().toISOString(), seen);
+      // The same id twice in one push: the second is a replay of the first.
+      seen.set(m.id, { farm_id: member.farmId, outcome: outcome === "applied" ? "applied" : "rejected" });
+      list.push(outcome);
+    }
+    return list;
+  });
+}
+
 async function applyOne(db: Knex.Transaction, member: PushMember, deviceId: string, m: Mutation, at: string, seenIds: Map<string, Seen>): Promise<"applied" | RejectedMutation["error"]> {
   const seen = seenIds.get(m.id);
-  if (seen && seen.farm_id !== member.farmId) return { code: "conflict", message: "This change's id is already taken. It was not saved." };
+  if (seen && seen.farm_id !== member.farmId) return takenIdError();
   if (seen?.outcome === "applied") return "applied"; // a replay: report it, change nothing
 
   // The mutation's own record. It never overwrites an applied record (the first push's who and where
@@ -91,17 +123,13 @@ async function applyOne(db: Knex.Transaction, member: PushMember, deviceId: stri
   /** Another push (another process, another connection) recorded this mutation first. */
   const recordedElsewhere = async (): Promise<"applied" | RejectedMutation["error"] | null> => {
     const row: Seen | undefined = await db("applied_mutations").where({ id: m.id }).first("farm_id", "outcome");
-    if (row && row.farm_id !== member.farmId) return { code: "conflict", message: "This change's id is already taken. It was not saved." };
+    if (row && row.farm_id !== member.farmId) return takenIdError();
     return row?.outcome === "applied" ? "applied" : null;
   };
 
   let error: RejectedMutation["error"];
   try {
-    assertWellFormedText(m.args); // half an emoji refuses this mutation alone (the push skips the check)
-    const args = mutationTable[m.name].args.parse(m.args);
-    if (!canRun(member.role, m.name)) {
-      throw new AppError("forbidden", `A ${vocabularyLabels.role[member.role]} cannot do this (${describe(m.name)}). Ask the farm's owner.`);
-    }
+    const args = admit(member, m);
     const apply = () =>
       db.transaction(async (trx): Promise<"applied" | RejectedMutation["error"]> => {
         // Claim the mutation first: the same mutation pushed by another process at the same moment
@@ -123,21 +151,37 @@ async function applyOne(db: Knex.Transaction, member: PushMember, deviceId: stri
       return await apply();
     }
   } catch (err) {
-    if (err instanceof ZodError) {
-      error = { code: "invalid", message: `Some of this ${describe(m.name)} is not right.`, fields: fieldsOf(err) };
-    } else if (err instanceof AppError) {
-      error = { code: err.code, message: err.message, ...(err.fields ? { fields: err.fields } : {}) };
-    } else if (isUniqueViolation(err)) {
-      // Still taken after a fresh look: sending it again would not help, so it is refused, not retried.
-      error = { code: "conflict", message: `This ${describe(m.name)} clashes with a record saved at the same moment. It was not saved.` };
-    } else {
+    const refused = refusalOf(m.name, err);
+    if (!refused) {
       console.error("[rimebook] push: unexpected error applying", m.name, err);
       return { code: "server_error", message: "The server could not save this change just now; it will be sent again." };
     }
+    error = refused;
   }
   if (!(await record(db, "rejected", error))) return (await recordedElsewhere()) ?? error;
   return error;
 }
+
+/** The answer for a mutation refused by `err`; null for an unexpected error (nothing wrong with the mutation). */
+export function refusalOf(name: MutationName, err: unknown): RejectedMutation["error"] | null {
+  if (err instanceof ZodError) return { code: "invalid", message: `Some of this ${describe(name)} is not right.`, fields: fieldsOf(err) };
+  if (err instanceof AppError) return { code: err.code, message: err.message, ...(err.fields ? { fields: err.fields } : {}) };
+  // Still taken after a fresh look: sending it again would not help, so it is refused, not retried.
+  if (isUniqueViolation(err)) return { code: "conflict", message: `This ${describe(name)} clashes with a record saved at the same moment. It was not saved.` };
+  return null;
+}
+
+/** Checks a mutation's text, schema and the member's role; its parsed args, or throws the refusal. */
+export function admit<N extends MutationName>(member: PushMember, m: Mutation & { name: N }): MutationArgs<N> {
+  assertWellFormedText(m.args); // half an emoji refuses this mutation alone (the push skips the check)
+  const args = mutationTable[m.name].args.parse(m.args) as MutationArgs<N>;
+  if (!canRun(member.role, m.name)) {
+    throw new AppError("forbidden", `A ${vocabularyLabels.role[member.role]} cannot do this (${describe(m.name)}). Ask the farm's owner.`);
+  }
+  return args;
+}
+
+export const takenIdError = (): RejectedMutation["error"] => ({ code: "conflict", message: "This change's id is already taken. It was not saved." });
 
 function describe(name: MutationName): string {
   const [entity, verb] = name.split(".");
@@ -248,10 +292,15 @@ async function insertRow(ctx: Ctx, table: EffectTable, row: RowValues): Promise<
     }
   }
   const seq = await nextSeq(trx, member.farmId);
+  await trx(table).insert(stampedRow(table, row, member, at, seq));
+  if (table === "protocols") await replaceProtocolSources(ctx.trx, { farmId: ctx.member.farmId, protocolId: row.id, phases: row.phases as ProtocolPhase[], seq: seq, at: ctx.at });
+}
+
+/** A new row as stored: the server's own columns stamped, JSON columns as text. */
+export function stampedRow(table: EffectTable, row: RowValues, member: PushMember, at: string, seq: number): Record<string, unknown> {
   const stamped: Record<string, unknown> = { ...row, farm_id: member.farmId, created_at: at, updated_at: at, seq, deleted_at: null };
   if (table === "checks") stamped.checked_by = member.userId;
-  await trx(table).insert(serializeRow(table, stamped));
-  if (table === "protocols") await replaceProtocolSources(ctx.trx, { farmId: ctx.member.farmId, protocolId: row.id, phases: row.phases as ProtocolPhase[], seq: seq, at: ctx.at });
+  return serializeRow(table, stamped);
 }
 
 /** Later arrival wins field by field; each value it replaces is kept in audit_log. */
@@ -302,4 +351,4 @@ const tableLabels: Record<EffectTable, string> = {
   checks: "That check", photos: "That photo", sowings: "That sowing", counts: "That count", trials: "That trial",
   trial_arms: "That trial arm", plan_items: "That plan item", memberships: "That member",
 };
-const labelOf = (table: EffectTable) => tableLabels[table];
+export const labelOf = (table: EffectTable) => tableLabels[table];
