@@ -26,6 +26,7 @@ export async function loadIdentity(db: RimebookDB = getLocalDb()): Promise<Phone
 export async function clearFarmCopy(db: RimebookDB): Promise<void> {
   await Promise.all([...farmTables.map((t) => db.table(t).clear()), db.audit_log.clear()]);
   await db.meta.bulkDelete([META.cursor, META.firstPullDone, META.repairPull, META.lastSyncAt]);
+  await writeMeta(db, META.farmCopy, crypto.randomUUID());
 }
 
 /** After a restore the server's farm is new from end to end: the phone drops its copy and fetches it again. */
@@ -103,6 +104,7 @@ export async function wipePhoneStore(db: RimebookDB = getLocalDb()): Promise<voi
   await db.transaction("rw", db.tables, async () => {
     await Promise.all(db.tables.map((t) => t.clear()));
     if (deviceId) await writeMeta(db, META.deviceId, deviceId);
+    await writeMeta(db, META.farmCopy, crypto.randomUUID());
   });
 }
 

@@ -19,7 +19,7 @@ type KeptStore = { since: string; rows: Reading[] };
 
 /** What the phone kept after one read; never changed afterwards (a later read makes a new one from it). */
 interface Kept {
-  farm: string | null;
+  farm: string;
   /** Rows in the table other than this phone's own (seq 0) when it was read. */
   count: number;
   maxSeq: number;
@@ -84,14 +84,16 @@ export async function loadStoreReadings(db: RimebookDB, storeId: string, since: 
  */
 export async function readKeptReadings(db: RimebookDB, sinceByStore: ReadonlyMap<string, string>): Promise<Reading[][]> {
   return db.transaction("r", db.readings, db.meta, async () => {
-    const [identity, total, own, top] = await Promise.all([
+    const [identity, copy, total, own, top] = await Promise.all([
       db.meta.get(META.identity),
+      db.meta.get(META.farmCopy),
       db.readings.count(),
       db.readings.where("seq").equals(0).toArray(),
       db.readings.orderBy("seq").lastKey(),
     ]);
     const farmValue = identity?.value as { farm?: { id?: string }; user?: { id?: string } } | undefined;
-    const farm = farmValue ? `${farmValue.farm?.id ?? ""}/${farmValue.user?.id ?? ""}` : null;
+    // The farm, the person, and which copy of the farm (emptied and fetched again after a restore or a wipe).
+    const farm = `${farmValue?.farm?.id ?? ""}/${farmValue?.user?.id ?? ""}/${String(copy?.value ?? "")}`;
     const count = total - own.length;
     const maxSeq = typeof top === "number" ? top : 0;
     const before = kept.get(db);
