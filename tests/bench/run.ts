@@ -429,6 +429,8 @@ async function benchToday() {
   const { buildRoundFromRows, cadenceFor } = await import("@/lib/domain/rows/round-input");
   const { buildBagRows } = await import("@/lib/domain/rows/bag-rows");
   const farm = await makeTodayFarm();
+  // BENCH_TODAY_BROWSER=only: the Chromium figures alone; =0: without them.
+  if (process.env.BENCH_TODAY_BROWSER === "only") return benchTodayInChromium(farm);
   const { byTable, bags, checks, readings, today } = farm;
 
   const phone = new RimebookDB(`bench-${randomUUID()}`);
@@ -537,7 +539,7 @@ async function benchTodayInChromium(farm: Awaited<ReturnType<typeof makeTodayFar
       .waitForFunction(
         () => {
           const h = document.querySelector("[data-testid=round-headline]");
-          return location.pathname === "/today" && h && h.textContent !== "Today\u2019s round" ? performance.now() : false;
+          return location.pathname === "/today" && h && h.textContent !== "Today\u2019s round" ? window.performance.now() : false;
         },
         undefined,
         { timeout: 60_000, polling: "raf" },
@@ -557,7 +559,7 @@ async function benchTodayInChromium(farm: Awaited<ReturnType<typeof makeTodayFar
       await page.locator('nav a[href="/scan"]').last().click();
       await page.waitForURL("**/scan");
       const start = await page.evaluate(() => {
-        const t = performance.now();
+        const t = window.performance.now();
         (Array.from(document.querySelectorAll('nav a[href="/today"]')).pop() as HTMLElement).click();
         return t;
       });
@@ -623,7 +625,7 @@ async function benchOneRound(
     const cpu: number[] = [];
     for (let i = 0; i < n; i++) {
       const c = process.cpuUsage();
-      const t = performance.now();
+      const t = window.performance.now();
       fn();
       wall.push(performance.now() - t);
       const d = process.cpuUsage(c);
