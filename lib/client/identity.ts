@@ -2,6 +2,7 @@ import { SCREENS_CACHE_PREFIX } from "./cache-names";
 import { farmTables, getLocalDb, type RimebookDB } from "./db";
 import { META, readIdentity, readMeta, writeMeta, type PhoneIdentity } from "./meta";
 import { getSyncEngine, setSyncEngine } from "./sync";
+import { forgetKeptReadings } from "./kept-readings";
 import { dropPushSubscription } from "./reminders";
 import { readWaiting, type WaitingTally } from "./waiting";
 
@@ -104,8 +105,9 @@ export async function wipePhoneStore(db: RimebookDB = getLocalDb()): Promise<voi
   await db.transaction("rw", db.tables, async () => {
     await Promise.all(db.tables.map((t) => t.clear()));
     if (deviceId) await writeMeta(db, META.deviceId, deviceId);
-    await writeMeta(db, META.farmCopy, crypto.randomUUID());
   });
+  // Only the device id stays: what screens kept of the farm's readings in this tab goes too.
+  forgetKeptReadings(db);
 }
 
 /** Runtime caches (API answers, visited pages, photos) go; the build's precache and screen payloads (no farm data) stay. */
