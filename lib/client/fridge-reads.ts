@@ -6,9 +6,12 @@ import type { Reading } from "@/lib/schemas/reading";
 import type { Store } from "@/lib/schemas/store";
 import { normalizeCrockford } from "@/lib/domain/bag-codes";
 import { addDaysToIsoDay } from "@/lib/domain/dates";
-import type { ReadingRow } from "@/lib/domain/rows/bag-rows";
+import type { ReadingRow, StoreReadingsCache } from "@/lib/domain/rows/bag-rows";
 import type { ProtocolRow, RimebookDB } from "./db";
 import { META, readMeta } from "./meta";
+import { keptReadingsCache, loadStoreReadings, readKeptReadings } from "./kept-readings";
+
+export { loadStoreReadings };
 
 // Reads for the screens at the fridge (Today, Scan, Check, Labels). Only reads: writes go through the
 // repository functions. Components call these inside useLiveQuery so they follow the phone store live.
@@ -20,18 +23,8 @@ export interface FarmRows {
   stores: Store[];
   /** Live readings of every store: the bags' windows move by the cold they lost (lib/domain effective window). */
   readings: Reading[];
-}
-
-/**
- * One store's live readings in time order, one read of its time index. `sinceDay`: leave out readings older than
- * that day (a reading more than 6 h before a bag's cold began never counts for it, so older seasons cost nothing).
- */
-export async function loadStoreReadings(db: RimebookDB, storeId: string, sinceDay: string | null = null): Promise<Reading[]> {
-  const rows = await db.readings
-    .where("[store_id+taken_at]")
-    .between([storeId, sinceDay ?? Dexie.minKey], [storeId, Dexie.maxKey], true, true)
-    .toArray();
-  return rows.filter((r) => !r.deleted_at);
+  /** Keeps each store's prepared readings between rounds on this phone (buildBagRows reads it). */
+  readingsCache: StoreReadingsCache;
 }
 
 /**
@@ -59,13 +52,16 @@ export async function loadReadingsOfBagStores(
     if (!seen || b.start_date < seen) earliest.set(b.store_id, b.start_date);
   }
   // Two days' margin: a bag's day starts at local midnight, a reading's time may carry any offset.
-  const reads = [...earliest].map(([id, day]) => loadStoreReadings(db, id, addDaysToIsoDay(day, -2)));
-  return (await Promise.all(reads)).flat();
+  const since = new Map([...earliest].map(([id, day]) => [id, addDaysToIsoDay(day, -2)]));
+  // Only what changed since the last read is read again (lib/client/kept-readings).
+  return (await readKeptReadings(db, since)).flat();
 }
 
 export async function loadFarmRows(db: RimebookDB, readingsFor: ReadingsFor = "all"): Promise<FarmRows> {
   const [bags, lots, protocols, stores] = await Promise.all([db.bags.toArray(), db.lots.toArray(), db.protocols.toArray(), db.stores.toArray()]);
-  return { bags, lots, protocols, stores, readings: await loadReadingsOfBagStores(db, bags, stores, readingsFor) };
+  const readings = await loadReadingsOfBagStores(db, bags, stores, readingsFor);
+  // Each store's prepared readings are kept between rounds too, while its readings stay the same.
+  return { bags, lots, protocols, stores, readings, readingsCache: keptReadingsCache(db, readingsFor) };
 }
 
 /** The latest check of one bag (checks are append-only; the newest one speaks for the bag). */
@@ -87,11 +83,12 @@ export async function loadLastChecks(db: RimebookDB, bagIds: readonly string[]):
   }
   const wanted = new Set(bagIds);
   const last = new Map<string, Check>();
-  await db.checks.each((c) => {
-    if (c.deleted_at || !wanted.has(c.bag_id)) return;
+  // One getAll, not a cursor: a browser's IndexedDB answers each cursor step on its own, far slower per row.
+  for (const c of await db.checks.toArray()) {
+    if (c.deleted_at || !wanted.has(c.bag_id)) continue;
     const prev = last.get(c.bag_id);
     if (!prev || c.checked_at > prev.checked_at) last.set(c.bag_id, c);
-  });
+  }
   return last;
 }
 

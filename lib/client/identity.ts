@@ -2,6 +2,7 @@ import { SCREENS_CACHE_PREFIX } from "./cache-names";
 import { farmTables, getLocalDb, type RimebookDB } from "./db";
 import { META, readIdentity, readMeta, writeMeta, type PhoneIdentity } from "./meta";
 import { getSyncEngine, setSyncEngine } from "./sync";
+import { forgetKeptReadings } from "./kept-readings";
 import { dropPushSubscription } from "./reminders";
 import { readWaiting, type WaitingTally } from "./waiting";
 
@@ -26,6 +27,7 @@ export async function loadIdentity(db: RimebookDB = getLocalDb()): Promise<Phone
 export async function clearFarmCopy(db: RimebookDB): Promise<void> {
   await Promise.all([...farmTables.map((t) => db.table(t).clear()), db.audit_log.clear()]);
   await db.meta.bulkDelete([META.cursor, META.firstPullDone, META.repairPull, META.lastSyncAt]);
+  await writeMeta(db, META.farmCopy, crypto.randomUUID());
 }
 
 /** After a restore the server's farm is new from end to end: the phone drops its copy and fetches it again. */
@@ -104,6 +106,8 @@ export async function wipePhoneStore(db: RimebookDB = getLocalDb()): Promise<voi
     await Promise.all(db.tables.map((t) => t.clear()));
     if (deviceId) await writeMeta(db, META.deviceId, deviceId);
   });
+  // Only the device id stays: what screens kept of the farm's readings in this tab goes too.
+  forgetKeptReadings(db);
 }
 
 /** Runtime caches (API answers, visited pages, photos) go; the build's precache and screen payloads (no farm data) stay. */

@@ -10,6 +10,8 @@ export const META = {
   lastSyncAt: "last_sync_at",
   firstPullDone: "first_pull_done",
   repairPull: "repair_pull",
+  /** A new id each time the farm's copy is emptied, so what screens kept of the old copy is never taken for the new. */
+  farmCopy: "farm_copy",
 } as const;
 
 export type FarmSettings = {

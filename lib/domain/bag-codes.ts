@@ -41,13 +41,20 @@ export function normalizeCrockford(text: string): string {
     if (c === 79 /* O */ || c === 73 /* I */ || c === 76 /* L */ || c === 45 /* - */ || isSpace(c)) break;
   }
   if (i === s.length) return s;
-  let out = s.slice(0, i);
+  // Runs between the characters dropped or folded are copied whole ("BN00001-X": two pieces, not nine).
+  let out = "";
+  let from = 0;
   for (; i < s.length; i++) {
     const c = s.charCodeAt(i);
-    if (c === 45 || isSpace(c)) continue;
-    out += c === 79 ? "0" : c === 73 || c === 76 ? "1" : s[i];
+    if (c === 45 || isSpace(c)) {
+      out += s.slice(from, i);
+      from = i + 1;
+    } else if (c === 79 || c === 73 || c === 76) {
+      out += s.slice(from, i) + (c === 79 ? "0" : "1");
+      from = i + 1;
+    }
   }
-  return out;
+  return out + s.slice(from);
 }
 
 function valueOf(symbol: string): number {

@@ -397,11 +397,9 @@ async function benchOffline() {
 
 const BAGS = 10_000;
 
-async function benchToday() {
-  const { RimebookDB } = await import("@/lib/client/db");
-  const { loadFarmRows, loadLastChecks } = await import("@/lib/client/fridge-reads");
-  const { buildRoundFromRows, cadenceFor } = await import("@/lib/domain/rows/round-input");
-  const { buildBagRows } = await import("@/lib/domain/rows/bag-rows");
+/** The Today benchmarks' farm: the demo farm pulled through the pull handler, its bags cloned to 10,000, with checks
+ *  and a logger's season of readings in each store. */
+async function makeTodayFarm() {
   const { formatIsoDay } = await import("@/lib/domain/dates");
 
   // Real row shapes: the demo farm pulled through the pull handler, then its bags cloned to 10,000.
@@ -459,6 +457,18 @@ async function benchToday() {
     })),
   );
   const readings = [...(byTable.readings ?? []), ...loggerReadings];
+  return { byTable, bags, checks, readings, today };
+}
+
+async function benchToday() {
+  const { RimebookDB } = await import("@/lib/client/db");
+  const { loadFarmRows, loadLastChecks } = await import("@/lib/client/fridge-reads");
+  const { buildRoundFromRows, cadenceFor } = await import("@/lib/domain/rows/round-input");
+  const { buildBagRows } = await import("@/lib/domain/rows/bag-rows");
+  const farm = await makeTodayFarm();
+  // BENCH_TODAY_BROWSER=only: the Chromium figures alone; =0: without them.
+  if (process.env.BENCH_TODAY_BROWSER === "only") return benchTodayInChromium(farm);
+  const { byTable, bags, checks, readings, today } = farm;
 
   const phone = new RimebookDB(`bench-${randomUUID()}`);
   await phone.transaction("rw", [phone.protocols, phone.lots, phone.stores, phone.bags, phone.checks, phone.readings], async () => {
@@ -479,8 +489,17 @@ async function benchToday() {
     const [lastChecks, farmWindows] = await Promise.all([loadLastChecks(phone, live.map((b) => b.id)), loadSpeciesWindows(phone, rows, today)]);
     due = buildRoundFromRows(rows, lastChecks, today, cadenceFor(7), undefined, farmWindows).items.length;
   };
+  const { forgetKeptReadings } = await import("@/lib/client/kept-readings");
+  // Cold: nothing kept on the phone yet (Today's first round after the app opens). Warm: the next rounds, which read
+  // only what changed and prepare only the stores whose readings changed.
+  const coldRound = async () => {
+    forgetKeptReadings(phone);
+    await loadRound();
+  };
+  await coldRound();
+  const fullCold = median(await samples(3, coldRound));
   await loadRound();
-  const full = median([await time(loadRound), await time(loadRound), await time(loadRound)]);
+  const full = median(await samples(3, loadRound));
   // Just the domain part, from rows already in memory.
   const rows = await loadFarmRows(phone, "in_cold");
   const live = rows.bags.filter((b) => !b.deleted_at && b.start_date && !b.pulled_on && !b.sown_on && !b.discarded_on);
@@ -488,7 +507,7 @@ async function benchToday() {
   // One round per sample (five rounds started together inside Promise.all would each time several rounds).
   const domain = median(await samples(5, () => buildRoundFromRows(rows, lastChecks, today, cadenceFor(7))));
   // What the effective windows cost: the same round with the stores' readings left out (every window as planned).
-  const noReadings = { ...rows, readings: [] };
+  const noReadings = { ...rows, readings: [], readingsCache: undefined };
   const planned = median(await samples(5, () => buildRoundFromRows(noReadings, lastChecks, today, cadenceFor(7))));
   const moved = buildBagRows(rows, today).filter((r) => r.lostColdDays > 0).length;
   // Baselines: a plain scan of the same rows (read them all, one pass comparing dates), and reading the table alone.
@@ -504,7 +523,13 @@ async function benchToday() {
   );
   // How much of the total is reading the fridges' readings (one read per store, from two days before its earliest bag).
   const { loadReadingsOfBagStores } = await import("@/lib/client/fridge-reads");
-  const readingsRead = median([await time(() => loadReadingsOfBagStores(phone, rows.bags, rows.stores, "in_cold")), await time(() => loadReadingsOfBagStores(phone, rows.bags, rows.stores, "in_cold"))]);
+  const readingsRead = median(await samples(3, () => loadReadingsOfBagStores(phone, rows.bags, rows.stores, "in_cold")));
+  const readingsReadCold = median(
+    await samples(3, () => {
+      forgetKeptReadings(phone);
+      return loadReadingsOfBagStores(phone, rows.bags, rows.stores, "in_cold");
+    }),
+  );
   // How much of the total is the per-bag look-up of last checks: the same answer from one read of the table.
   const perBag = median([await time(() => loadLastChecks(phone, live.map((b) => b.id))), await time(() => loadLastChecks(phone, live.map((b) => b.id)))]);
   const onePass = median(
@@ -515,29 +540,129 @@ async function benchToday() {
   );
   phone.close();
   console.log(`  ${due} of ${BAGS} bags due today; plain scan saw ${scanned} bags in the cold; ${moved} windows moved by ${rows.readings.length.toLocaleString("en")} readings`);
-  record({ bench: "Today round", measure: `${BAGS.toLocaleString("en")} bags from the phone store (Dexie read + last checks + farm history + lib/domain round)`, value: full, unit: "ms", baseline: "reading the bags table alone (toArray)", baselineValue: readOnly });
-  record({ bench: "Today round", measure: `reading ${rows.readings.length.toLocaleString("en")} fridge readings, one read per store (loadReadingsOfBagStores)`, value: readingsRead, unit: "ms", baseline: "reading the bags table alone (toArray)", baselineValue: readOnly });
+  record({ bench: "Today round", measure: `${BAGS.toLocaleString("en")} bags from the phone store (Dexie read + last checks + farm history + lib/domain round), cold: nothing kept`, value: fullCold, unit: "ms", baseline: "reading the bags table alone (toArray)", baselineValue: readOnly });
+  record({ bench: "Today round", measure: `the same, warm: readings kept from the last round`, value: full, unit: "ms", baseline: "reading the bags table alone (toArray)", baselineValue: readOnly });
+  record({ bench: "Today round", measure: `reading ${rows.readings.length.toLocaleString("en")} fridge readings, one read per store (loadReadingsOfBagStores), cold`, value: readingsReadCold, unit: "ms", baseline: "reading the bags table alone (toArray)", baselineValue: readOnly });
+  record({ bench: "Today round", measure: `the same readings, warm (only what changed is read)`, value: readingsRead, unit: "ms", baseline: "reading the bags table alone (toArray)", baselineValue: readOnly });
   record({ bench: "Today round", measure: `last check of ${live.length.toLocaleString("en")} bags, one indexed query per bag (loadLastChecks)`, value: perBag, unit: "ms", baseline: "one read of the checks table, newest per bag", baselineValue: onePass });
   record({ bench: "Today round", measure: `lib/domain round over ${BAGS.toLocaleString("en")} bags, rows in memory`, value: domain, unit: "ms", baseline: "plain array scan of the same rows", baselineValue: Math.max(scan, 0.01) });
   record({ bench: "Today round", measure: `the same round with effective windows from ${rows.readings.length.toLocaleString("en")} readings`, value: domain, unit: "ms", baseline: "the same round, readings left out (planned windows)", baselineValue: planned });
   recordOneRound(await benchOneRound(rows, lastChecks, today), rows.readings.length);
+  if (process.env.BENCH_TODAY_BROWSER !== "0") await benchTodayInChromium(farm);
+}
+
+// 5c. The whole Today in Chromium over the same 10,000 bags: the production build, the phone store filled with the
+// farm above, timed from the navigation (cold: a reload, nothing kept in memory) or from the tap on the Today tab
+// (warm: back from Scan, the readings kept from the last round) to the round's heading showing the count. Floors:
+// the same navigations on a phone whose farm is empty (framework, service worker, IndexedDB opening, React).
+
+async function benchTodayInChromium(farm: Awaited<ReturnType<typeof makeTodayFarm>>) {
+  const app = await getServer();
+  const { launchChromium, phoneContext } = await import("../e2e/support/browser");
+  const browser = await launchChromium();
+  type Page = import("playwright-core").Page;
+  const open = async () => {
+    const context = await phoneContext(browser, app.origin);
+    await context.addCookies(cookie.split("; ").map((c) => ({ name: c.split("=")[0], value: c.slice(c.indexOf("=") + 1), url: app.origin })));
+    const page = await context.newPage();
+    await page.goto("/today", { waitUntil: "load" });
+    // The first pull done (an empty bench farm): the phone store is open and its identity known.
+    await page.waitForFunction(() => document.querySelector("[data-testid=round-headline]")?.textContent !== "Today\u2019s round", undefined, { timeout: 60_000 });
+    return { context, page };
+  };
+  // Today has its data when the heading is no longer the placeholder (the round's count or the first steps).
+  const shown = (page: Page) =>
+    page
+      .waitForFunction(
+        () => {
+          const h = document.querySelector("[data-testid=round-headline]");
+          return location.pathname === "/today" && h && h.textContent !== "Today\u2019s round" ? window.performance.now() : false;
+        },
+        undefined,
+        { timeout: 60_000, polling: "raf" },
+      )
+      .then((v) => v.jsonValue() as Promise<number>);
+  const cold = async (page: Page) => {
+    const times: number[] = [];
+    for (let i = 0; i < 6; i++) {
+      await page.reload({ waitUntil: "commit" });
+      times.push(await shown(page));
+    }
+    return median(times.slice(1));
+  };
+  const warm = async (page: Page) => {
+    const times: number[] = [];
+    for (let i = 0; i < 8; i++) {
+      await page.locator('nav a[href="/scan"]').last().click();
+      await page.waitForURL("**/scan");
+      const start = await page.evaluate(() => {
+        const t = window.performance.now();
+        (Array.from(document.querySelectorAll('nav a[href="/today"]')).pop() as HTMLElement).click();
+        return t;
+      });
+      times.push((await shown(page)) - start);
+    }
+    return median(times.slice(2));
+  };
+  try {
+    const empty = await open();
+    const floorCold = await cold(empty.page);
+    const floorWarm = await warm(empty.page);
+    await empty.context.close();
+
+    const full = await open();
+    // The farm written straight into the phone store (as a first pull leaves it), then Today opened afresh.
+    const tables: [string, unknown[]][] = [
+      ["protocols", farm.byTable.protocols ?? []], ["lots", farm.byTable.lots ?? []], ["stores", farm.byTable.stores ?? []],
+      ["bags", farm.bags], ["checks", farm.checks], ["readings", farm.readings],
+    ];
+    for (const [table, rows] of tables) {
+      for (let i = 0; i < rows.length; i += 5000) {
+        await full.page.evaluate(
+          ([name, chunk]) =>
+            new Promise<void>((resolve, reject) => {
+              const req = indexedDB.open("rimebook");
+              req.onerror = () => reject(req.error);
+              req.onsuccess = () => {
+                const tx = req.result.transaction(name, "readwrite");
+                const store = tx.objectStore(name);
+                for (const row of chunk) store.put(row);
+                tx.oncomplete = () => (req.result.close(), resolve());
+                tx.onerror = () => reject(tx.error);
+              };
+            }),
+          [table, rows.slice(i, i + 5000)] as const,
+        );
+      }
+    }
+    const todayCold = await cold(full.page);
+    const headline = await full.page.locator("[data-testid=round-headline]").textContent();
+    const todayWarm = await warm(full.page);
+    await full.context.close();
+    console.log(`  Chromium Today: "${headline}" over ${farm.bags.length.toLocaleString("en")} bags, ${farm.readings.length.toLocaleString("en")} readings`);
+    const n = farm.bags.length.toLocaleString("en");
+    record({ bench: "Today round", measure: `Today in Chromium, ${n} bags, cold: reload to the round's heading (median of 5)`, value: todayCold, unit: "ms", baseline: "the same reload, empty farm", baselineValue: floorCold });
+    record({ bench: "Today round", measure: `Today in Chromium, ${n} bags, warm: Today tab tapped (back from Scan) to the heading (median of 6)`, value: todayWarm, unit: "ms", baseline: "the same tap, empty farm", baselineValue: floorWarm });
+  } finally {
+    await browser.close();
+  }
 }
 
 // 5b. The lib/domain round timed one round at a time (a synchronous round inside Promise.all spans several rounds).
-type OneRound = { round: number; cpu: number; readings: number; scan: number };
+type OneRound = { round: number; cpu: number; cold: number; readings: number; keptReadings: number; readingsPass: number; scan: number };
 async function benchOneRound(
   rows: import("@/lib/domain/rows/bag-rows").BagRowSources,
   lastChecks: ReadonlyMap<string, import("@/lib/domain/rows/round-input").LastCheckRow>,
   today: string,
 ): Promise<OneRound> {
   const { buildRoundFromRows, cadenceFor } = await import("@/lib/domain/rows/round-input");
-  const { prepareReadingsByStore } = await import("@/lib/domain/rows/bag-rows");
+  const { prepareReadingsByStore, StoreReadingsCache } = await import("@/lib/domain/rows/bag-rows");
   const sample = (fn: () => unknown, n: number) => {
     const wall: number[] = [];
     const cpu: number[] = [];
     for (let i = 0; i < n; i++) {
       const c = process.cpuUsage();
-      const t = performance.now();
+      const t = window.performance.now();
       fn();
       wall.push(performance.now() - t);
       const d = process.cpuUsage(c);
@@ -545,23 +670,37 @@ async function benchOneRound(
     }
     return { wall: median(wall), cpu: median(cpu) };
   };
-  const round = () => buildRoundFromRows(rows, lastChecks, today, cadenceFor(7));
+  // Warm: each store's prepared readings kept from the last round (as on the phone); cold: prepared afresh.
+  const cache = new StoreReadingsCache();
+  const round = () => buildRoundFromRows({ ...rows, readingsCache: cache }, lastChecks, today, cadenceFor(7));
   round();
   const r = sample(round, 15);
+  const cold = sample(() => buildRoundFromRows({ ...rows, readingsCache: undefined }, lastChecks, today, cadenceFor(7)), 15).wall;
   const readings = sample(() => prepareReadingsByStore(rows.readings ?? []), 15).wall;
+  const keptReadings = sample(() => cache.prepare(rows.readings ?? []), 15).wall;
+  // The floor for preparing readings: one pass over the same rows touching each reading's time and temperature.
+  const readingsPass = sample(() => {
+    let n = 0;
+    for (const x of rows.readings ?? []) if (!x.deleted_at && x.taken_at.length && x.temperature_c < 100) n++;
+    return n;
+  }, 15).wall;
   const scan = sample(() => {
     let n = 0;
     for (const b of rows.bags) if (b.start_date && b.start_date <= today && !b.pulled_on && !b.discarded_on) n++;
     return n;
   }, 15).wall;
-  return { round: r.wall, cpu: r.cpu, readings, scan: Math.max(scan, 0.01) };
+  return { round: r.wall, cpu: r.cpu, cold, readings, keptReadings, readingsPass: Math.max(readingsPass, 0.01), scan: Math.max(scan, 0.01) };
 }
 
 function recordOneRound(o: OneRound, readingCount: number) {
   const baseline = "plain array scan of the same rows";
-  console.log(`  one round at a time (median of 15): ${fmt(o.round)} ms`);
-  record({ bench: "Today round", measure: "the same round, CPU time of one round (process, median of 15)", value: o.cpu, unit: "ms", baseline, baselineValue: o.scan });
-  record({ bench: "Today round", measure: `preparing ${readingCount.toLocaleString("en")} readings (part of each round)`, value: o.readings, unit: "ms", baseline, baselineValue: o.scan });
+  console.log(`  one round at a time (median of 15): ${fmt(o.round)} ms warm, ${fmt(o.cold)} ms cold`);
+  record({ bench: "Today round", measure: "lib/domain round, one at a time, warm: readings prepared in the last round kept (median of 15)", value: o.round, unit: "ms", baseline, baselineValue: o.scan });
+  record({ bench: "Today round", measure: "the same round, cold: every store's readings prepared afresh (median of 15)", value: o.cold, unit: "ms", baseline, baselineValue: o.scan });
+  record({ bench: "Today round", measure: "the warm round, CPU time of one round (process, median of 15)", value: o.cpu, unit: "ms", baseline, baselineValue: o.scan });
+  const pass = "one pass over the same reading rows";
+  record({ bench: "Today round", measure: `preparing ${readingCount.toLocaleString("en")} readings, cold (prepareReadingsByStore)`, value: o.readings, unit: "ms", baseline: pass, baselineValue: o.readingsPass });
+  record({ bench: "Today round", measure: `the same readings, warm (kept: each store compared row by row, none prepared again)`, value: o.keptReadings, unit: "ms", baseline: pass, baselineValue: o.readingsPass });
 }
 
 // 7. The farm's own history: one species' curve of days to first roots over 5,000 bags and 50,000 checks in the phone

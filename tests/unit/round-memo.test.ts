@@ -4,6 +4,8 @@ import {
   buildBagRows,
   findEffectiveBagWindow,
   toTemperatureReadings,
+  prepareReadingsByStore,
+  StoreReadingsCache,
   type BagRow,
   type BagRowSources,
   type ReadingRow,
@@ -205,6 +207,67 @@ describe("Today's round shares work among bags with the same inputs, and gives e
       }),
       { numRuns: 150 },
     );
+  });
+
+  // Between rounds a reading is added, changed (time or temperature), tombstoned, brought back or removed, in any
+  // store: the round with each store's prepared readings kept must still equal the round prepared afresh.
+  const changeArb = fc.record({
+    kind: fc.constantFrom("add", "temperature", "time", "tombstone", "revive", "remove", "same_copy", "none"),
+    pick: fc.nat(),
+    store: fc.constantFrom("s-barn", "s-shed"),
+    hour: fc.integer({ min: 0, max: 200 * 24 }),
+    celsius: fc.constantFrom(-1, 2, 3.5, 5, 12.5),
+  });
+  type Change = Infer<typeof changeArb>;
+  function change(readings: ReadingRow[], c: Change): ReadingRow[] {
+    const at = new Date(parseIsoDay(base).getTime() + c.hour * 3_600_000).toISOString();
+    if (c.kind === "add") return [...readings, { store_id: c.store, taken_at: at, temperature_c: c.celsius, deleted_at: null }];
+    if (!readings.length || c.kind === "none") return readings;
+    const i = c.pick % readings.length;
+    const r = readings[i];
+    const next = [...readings];
+    if (c.kind === "remove") next.splice(i, 1);
+    // Fresh objects with the same content (as a new read of the phone store gives) are the same readings.
+    else if (c.kind === "same_copy") return readings.map((x) => ({ ...x }));
+    else if (c.kind === "temperature") next[i] = { ...r, temperature_c: r.temperature_c === c.celsius ? c.celsius + 0.5 : c.celsius };
+    else if (c.kind === "time") next[i] = { ...r, taken_at: at };
+    else if (c.kind === "tombstone") next[i] = { ...r, deleted_at: "2026-01-06T00:00:00Z" };
+    else next[i] = { ...r, deleted_at: null };
+    return next;
+  }
+
+  it("kept prepared readings: each round after readings change equals the round prepared afresh (property)", () => {
+    fc.assert(
+      fc.property(farmArb, fc.array(changeArb, { minLength: 1, maxLength: 6 }), (f, changes) => {
+        const { sources, lastChecks, today, farmWindows } = makeFarm(f);
+        const cache = new StoreReadingsCache();
+        let readings = [...(sources.readings ?? [])];
+        for (const c of [null, ...changes]) {
+          if (c) readings = change(readings, c);
+          if (f.sortReadings) readings.sort((a, b) => (a.store_id < b.store_id ? -1 : a.store_id > b.store_id ? 1 : 0));
+          expect(cache.prepare(readings)).toStrictEqual(prepareReadingsByStore(readings));
+          const kept = buildRoundFromRows({ ...sources, readings, readingsCache: cache }, lastChecks, today, cadenceFor(7), undefined, farmWindows);
+          expect(kept).toStrictEqual(buildRoundFromRows({ ...sources, readings }, lastChecks, today, cadenceFor(7), undefined, farmWindows));
+        }
+      }),
+      { numRuns: 150 },
+    );
+  });
+
+  it("kept prepared readings: only a store whose readings changed is prepared again", () => {
+    const at = (h: number) => new Date(parseIsoDay(base).getTime() + h * 3_600_000).toISOString();
+    const barn: ReadingRow[] = [0, 6, 12].map((h) => ({ store_id: "s-barn", taken_at: at(h), temperature_c: 3, deleted_at: null }));
+    const shed: ReadingRow[] = [0, 6].map((h) => ({ store_id: "s-shed", taken_at: at(h), temperature_c: 4, deleted_at: null }));
+    const cache = new StoreReadingsCache();
+    const first = cache.prepare([...barn, ...shed]);
+    expect(cache.preparedLastTime).toBe(2);
+    const again = cache.prepare([...barn.map((r) => ({ ...r })), ...shed]);
+    expect(cache.preparedLastTime).toBe(0);
+    expect(again.get("s-barn")).toBe(first.get("s-barn"));
+    const warmer = cache.prepare([...barn, { ...shed[0], temperature_c: 9 }, shed[1]]);
+    expect(cache.preparedLastTime).toBe(1);
+    expect(warmer.get("s-barn")).toBe(first.get("s-barn"));
+    expect([...warmer.get("s-shed")!.celsius]).toEqual([9, 4]);
   });
 
   it("two bags differing only in their start day, store or pulled day get their own windows", () => {

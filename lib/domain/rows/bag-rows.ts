@@ -98,6 +98,53 @@ export function prepareReadingsByStore(readings: readonly ReadingRow[]): Map<str
   return out;
 }
 
+/**
+ * Each store's prepared readings kept between rounds (Today reworks its round on every change in the phone store,
+ * and parsing a logger's season of timestamps was a fifth of each round). A store whose readings are the same as
+ * last time, row for row (time, temperature, tombstone, in the same order), keeps its prepared arrays; a reading
+ * added, changed or removed prepares that store again. `prepare` answers exactly what prepareReadingsByStore answers.
+ */
+export class StoreReadingsCache {
+  private kept = new Map<string, { rows: ReadingRow[]; prepared: StoreReadings | null }>();
+  /** Stores prepared afresh by the last `prepare` (for the benchmark and tests). */
+  preparedLastTime = 0;
+
+  prepare(readings: readonly ReadingRow[]): Map<string, StoreReadings> {
+    // Group by store keeping each store's order (the phone reads a store's readings together, so runs are long).
+    const byStore = new Map<string, ReadingRow[]>();
+    for (let i = 0; i < readings.length; ) {
+      const id = readings[i].store_id;
+      let list = byStore.get(id);
+      if (!list) byStore.set(id, (list = []));
+      for (; i < readings.length && readings[i].store_id === id; i++) list.push(readings[i]);
+    }
+    const out = new Map<string, StoreReadings>();
+    const next = new Map<string, { rows: ReadingRow[]; prepared: StoreReadings | null }>();
+    this.preparedLastTime = 0;
+    for (const [id, rows] of byStore) {
+      let entry = this.kept.get(id);
+      if (!entry || !sameReadings(entry.rows, rows)) {
+        entry = { rows, prepared: prepareReadingsByStore(rows).get(id) ?? null };
+        this.preparedLastTime++;
+      }
+      next.set(id, entry);
+      if (entry.prepared) out.set(id, entry.prepared);
+    }
+    this.kept = next;
+    return out;
+  }
+}
+
+function sameReadings(a: readonly ReadingRow[], b: readonly ReadingRow[]): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) {
+    const x = a[i];
+    const y = b[i];
+    if (x !== y && (x.taken_at !== y.taken_at || !Object.is(x.temperature_c, y.temperature_c) || !x.deleted_at !== !y.deleted_at)) return false;
+  }
+  return true;
+}
+
 const noReadings = prepareStoreReadings([]);
 
 export type BagForWindow = Pick<Bag, "start_date" | "window_start" | "window_end" | "pulled_on" | "sown_on" | "discarded_on" | "store_id">;
@@ -149,6 +196,8 @@ export interface BagRowSources {
   stores: readonly Store[];
   /** The stores' temperature readings; without them every window stays as planned. */
   readings?: readonly ReadingRow[];
+  /** Keeps each store's prepared readings between calls (the phone's Today); the answer is the same without it. */
+  readingsCache?: StoreReadingsCache;
 }
 
 /** In a window group's inputs where the stored window is not read (the protocol plans the window). */
@@ -174,12 +223,12 @@ function windowGroupInputs(protocolId: string | null, bag: BagForWindow, readsSt
 }
 
 /** One row per live bag; window and state come from lib/domain for `today`. */
-export function buildBagRows({ bags, lots, protocols, stores, readings = [] }: BagRowSources, today: IsoDay, clock: WindowClock = {}): BagRow[] {
+export function buildBagRows({ bags, lots, protocols, stores, readings = [], readingsCache }: BagRowSources, today: IsoDay, clock: WindowClock = {}): BagRow[] {
   const lotById = new Map(lots.map((l) => [l.id, l]));
   const storeById = new Map(stores.map((s) => [s.id, s]));
   // Work each protocol and each store's readings out once, not once per bag (Today has thousands of bags).
   const reconciled = new Map(protocols.filter((p) => !p.deleted_at).map((p) => [p.id, reconcileProtocol(readProtocolRow(p))]));
-  const readingsByStore = prepareReadingsByStore(readings);
+  const readingsByStore = readingsCache ? readingsCache.prepare(readings) : prepareReadingsByStore(readings);
   const dayStarts = new Map<IsoDay, number>();
   const startOfDay = clock.startOfDay ?? ((d: IsoDay) => parseIsoDay(d).getTime());
   const cachedStartOfDay = (d: IsoDay) => {
