@@ -1,8 +1,6 @@
 import { SCREENS_CACHE_PREFIX } from "./cache-names";
 import { farmTables, getLocalDb, type RimebookDB } from "./db";
 import { META, readIdentity, readMeta, writeMeta, type PhoneIdentity } from "./meta";
-import { getSyncEngine, setSyncEngine } from "./sync";
-import { dropPushSubscription } from "./reminders";
 import { readWaiting, type WaitingTally } from "./waiting";
 
 // Who is using this phone. Kept in the phone store so the app opens with no signal; refreshed from
@@ -89,9 +87,10 @@ export async function signOut({ force = false, fetch: f = fetch, baseUrl = "", d
   } catch {
     /* offline: the cookie is cleared server-side at its expiry; the phone forgets it now */
   }
+  // Loaded only here (sign-out is rare), so neither weighs on a screen's first load.
+  const [{ dropPushSubscription }, { setSyncEngine }] = await Promise.all([import("./reminders"), import("./sync")]);
   await dropPushSubscription();
-  getSyncEngine().stop();
-  setSyncEngine(null);
+  setSyncEngine(null); // stops the loop
   await wipePhoneStore(db);
   await clearFarmCaches();
   return { ok: true };
