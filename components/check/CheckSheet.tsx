@@ -132,6 +132,12 @@ export function CheckSheet() {
   const leaveTo = () =>
     from === "today" ? "/today" : from === "bag" ? `/bags/view?id=${encodeURIComponent(forCheck.id)}` : `/scan?saved=${encodeURIComponent(row.code)}`;
 
+  /** The save's checks and rows for these values (./check-save, loaded on the first tap if not yet warmed). */
+  async function planSave(values: CheckDraft, end?: CheckEnd) {
+    const { planCheckSave } = await loadSave();
+    return planCheckSave(values, { bag: forCheck, now: new Date(), today, unit, newId: () => crypto.randomUUID() }, end);
+  }
+
   async function persist(plan: CheckSavePlan) {
     setSaving(true);
     setSaveError(null);
@@ -150,8 +156,7 @@ export function CheckSheet() {
   }
 
   async function saveAllGood() {
-    const { planCheckSave } = await loadSave();
-    const r = planCheckSave(markAllGood(valuesNow()), { bag: forCheck, now: new Date(), today, unit, newId: () => crypto.randomUUID() });
+    const r = await planSave(markAllGood(valuesNow()));
     if (r.ok) return void persist(r.plan);
     formRef.current?.showErrors(r.fields);
     setSaveError("Not saved: see the marked field below.");
@@ -159,14 +164,12 @@ export function CheckSheet() {
 
   // The details form's submit, once its values passed the save's checks (its resolver, `checkValues`).
   async function saveEntered(values: CheckDraft) {
-    const { planCheckSave } = await loadSave();
-    const r = planCheckSave(values, { bag: forCheck, now: new Date(), today, unit, newId: () => crypto.randomUUID() });
+    const r = await planSave(values);
     if (r.ok) void persist(r.plan);
   }
 
   async function checkValues(values: CheckDraft) {
-    const { planCheckSave } = await loadSave();
-    const r = planCheckSave(values, { bag: forCheck, now: new Date(), today, unit, newId: () => crypto.randomUUID() });
+    const r = await planSave(values);
     return r.ok ? null : r.fields;
   }
 
@@ -186,8 +189,7 @@ export function CheckSheet() {
       }
       return;
     }
-    const { planCheckSave } = await loadSave();
-    const r = planCheckSave(valuesNow(), { bag: forCheck, now: new Date(), today, unit, newId: () => crypto.randomUUID() }, end);
+    const r = await planSave(valuesNow(), end);
     if (r.ok) return void persist(r.plan);
     formRef.current?.showErrors(r.fields);
     setEnding(null);
