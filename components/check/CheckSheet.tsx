@@ -1,6 +1,5 @@
 "use client";
 
-import dynamic from "next/dynamic";
 import Link from "next/link";
 import { useRouter, useSearchParams } from "next/navigation";
 import { useEffect, useMemo, useRef, useState } from "react";
@@ -22,6 +21,7 @@ import { SheetCautions } from "./SheetCautions";
 import { StateBadge } from "@/components/ui/StateBadge";
 import { formatShortDay } from "@/components/bags/format-day";
 import { chooseSheetSteps, sheetStepLabels, type SheetChoice, type SheetStep } from "@/lib/domain/check-choice";
+import { DiscardPanel, PullPanel } from "@/components/bags/EndBagPanels";
 import { allGoodDraft, isDraftEntered, markAllGood, spreadingMouldReason, type CheckDraft, type CheckEnd } from "./check-draft";
 import type { CheckSavePlan } from "./check-save";
 import type { CheckFormHandle } from "./CheckDetails";
@@ -34,9 +34,6 @@ const loadRepo = () => import("@/lib/client/repo");
 const loadPhotoTools = () => Promise.all([import("./compress-photo"), import("@/lib/client/photos")]);
 // Needed once the bag is read, so fetched beside hydration rather than in the first load: the bag's window and
 // state (the round's computations) and the details form (react-hook-form). "All good" needs neither form nor schema.
-// Pulling or discarding opens its panel (a date, a reason) on a tap: loaded then.
-const PullPanel = dynamic(() => import("@/components/bags/EndBagPanels").then((m) => m.PullPanel), { ssr: false });
-const DiscardPanel = dynamic(() => import("@/components/bags/EndBagPanels").then((m) => m.DiscardPanel), { ssr: false });
 const sheetView = lazyModule(() => import("./sheet-view"));
 const detailsForm = lazyModule(() => import("./CheckDetails"));
 
