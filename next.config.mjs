@@ -70,6 +70,8 @@ const nextConfig = {
   // Parallel local builds (several people in one tree) each get their own output folder.
   distDir,
   poweredByHeader: false,
+  // Bundle analysis only (RIMEBOOK_SOURCE_MAPS=1 with its own NEXT_DIST_DIR): browser source maps to attribute each chunk's bytes.
+  productionBrowserSourceMaps: process.env.RIMEBOOK_SOURCE_MAPS === "1",
   // knex resolves every dialect driver dynamically; keep it (and the native sqlite binding) out of the bundle.
   serverExternalPackages: ["knex", "better-sqlite3", "pg", "smtp-server", "nodemailer", "web-push"],
   // `next dev` runs on Turbopack; production builds use webpack (`next build --webpack`) for the service worker.

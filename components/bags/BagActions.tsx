@@ -1,5 +1,6 @@
 "use client";
 
+import dynamic from "next/dynamic";
 import Link from "next/link";
 import { useState } from "react";
 import type { Bag } from "@/lib/schemas/bag";
@@ -7,10 +8,12 @@ import type { Store } from "@/lib/schemas/store";
 import type { BagState } from "@/lib/schemas/words";
 import { discardBag, pullBag } from "@/lib/client/repo";
 import { Button, buttonClass } from "@/components/ui/Button";
-import { BagEditForm } from "./BagEditForm";
 import { DiscardPanel, PullPanel } from "./EndBagPanels";
 import { describeSaveError } from "./save-error";
 import { SaveError } from "./FormBits";
+
+// Opened by a tap, so loaded then (react-hook-form and zod stay out of the first load; precached for offline).
+const BagEditForm = dynamic(() => import("./BagEditForm").then((m) => m.BagEditForm), { ssr: false });
 
 type Panel = "pull" | "discard" | "edit" | null;
 

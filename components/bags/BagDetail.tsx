@@ -1,5 +1,6 @@
 "use client";
 
+import dynamic from "next/dynamic";
 import Link from "next/link";
 import { useSearchParams } from "next/navigation";
 import { useMemo, useState } from "react";
@@ -22,7 +23,6 @@ import { buttonClass } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
 import { StateBadge } from "@/components/ui/StateBadge";
 import { pickBagCautions } from "@/components/check/bag-cautions";
-import { SowingPanel } from "@/components/counts/SowingPanel";
 import { useMember } from "@/components/season/use-member";
 import { readProtocolRow } from "@/lib/domain/rows/protocol-row";
 import { BagActions } from "./BagActions";
@@ -34,6 +34,9 @@ import { formatLongDay, formatShortDay, formatStamp } from "./format-day";
 import { useToday } from "./use-farm-rows";
 import { WindowBar } from "./WindowBar";
 import { useFarmRoots } from "@/components/learn/use-farm-roots";
+
+// Only for a pulled or sown bag (its sowing form with react-hook-form and zod): loaded then, precached for offline.
+const SowingPanel = dynamic(() => import("@/components/counts/SowingPanel").then((m) => m.SowingPanel), { ssr: false });
 
 // One bag, read from the phone store (works with no signal). The id travels in the query (?id=…) so the page
 // itself is one static route the service worker can keep.

@@ -3,59 +3,42 @@
 import Link from "next/link";
 import { useRouter, useSearchParams } from "next/navigation";
 import { useEffect, useMemo, useRef, useState } from "react";
-import { Controller, useForm, type Resolver } from "react-hook-form";
 import { useLiveQuery } from "dexie-react-hooks";
 import { useFarmRoots } from "@/components/learn/use-farm-roots";
 import { getLocalDb } from "@/lib/client/db";
 import { loadBagForSheet, loadFarmFetched } from "@/lib/client/fridge-reads";
 import { loadIdentity } from "@/lib/client/identity";
-import { discardBag, pullBag, recordCheck, recordReading } from "@/lib/client/repo";
+import { lazyModule, useLazyModule } from "@/lib/client/lazy-module";
 import { formatBagCode, parseBagCode } from "@/lib/domain/bag-codes";
 import { formatIsoDay } from "@/lib/domain/dates";
-import { formatTemperature, type TemperatureUnit } from "@/lib/domain/units";
+import type { TemperatureUnit } from "@/lib/domain/units";
 import { AppError } from "@/lib/errors";
 import { canRun } from "@/lib/schemas/roles";
-import { checkActions, moistureLevels, mouldLevels, sproutLevels, vocabularyLabels, type Moisture, type Mould, type Sprouts } from "@/lib/schemas/words";
+import { vocabularyLabels } from "@/lib/schemas/words";
 import { Button } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
-import { cautionTexts } from "@/components/ui/Caution";
 import { SheetCautions } from "./SheetCautions";
-import { Field, Input, TextArea } from "@/components/ui/Field";
-import { Segmented } from "@/components/ui/Segmented";
 import { StateBadge } from "@/components/ui/StateBadge";
 import { formatShortDay } from "@/components/bags/format-day";
-import { cadenceFor } from "@/lib/domain/rows/round-input";
-import { adviseOnFindings, type CheckAdvice } from "@/lib/domain/schedule";
 import { chooseSheetSteps, sheetStepLabels, type SheetChoice, type SheetStep } from "@/lib/domain/check-choice";
 import { DiscardPanel, PullPanel } from "@/components/bags/EndBagPanels";
-import {
-  allGoodDraft,
-  isDraftEntered,
-  markAllGood,
-  previewCheck,
-  spreadingMouldReason,
-  toggleAction,
-  type CheckDraft,
-  type CheckEnd,
-} from "./check-draft";
+import { allGoodDraft, isDraftEntered, markAllGood, spreadingMouldReason, type CheckDraft, type CheckEnd } from "./check-draft";
 import type { CheckSavePlan } from "./check-save";
-import { describeSheet, formatPullWindow } from "./sheet-view";
+import type { CheckFormHandle } from "./CheckDetails";
 
 // Needed only after a tap, so kept out of the sheet's first load (a grower opens it from a label on a weak
-// phone): the save's schema checks (zod), photo compression and the photo queue. The service worker
-// precaches these chunks with the rest, so they load with no signal; the save's are warmed once the sheet shows.
+// phone): the save's schema checks (zod), the repositories, photo compression and the photo queue. The service
+// worker precaches these chunks with the rest, so they load with no signal; the save's are warmed once the sheet shows.
 const loadSave = () => import("./check-save");
+const loadRepo = () => import("@/lib/client/repo");
 const loadPhotoTools = () => Promise.all([import("./compress-photo"), import("@/lib/client/photos")]);
+// Needed once the bag is read, so fetched beside hydration rather than in the first load: the bag's window and
+// state (the round's computations) and the details form (react-hook-form). "All good" needs neither form nor schema.
+const sheetView = lazyModule(() => import("./sheet-view"));
+const detailsForm = lazyModule(() => import("./CheckDetails"));
 
 // The check sheet: one tap for "all good", or the findings, actions, note, temperature and a photo.
 // Saved on the phone through the repositories (outbox), so it works with no signal.
-
-const moistureTone = (v: Moisture) => (v === "damp" ? "good" : "attention");
-const mouldTone = (v: Mould) => (v === "clean" ? "good" : v === "spots" ? "attention" : "danger");
-const sproutsTone = (v: Sprouts) => (v === "none" ? "neutral" : "good");
-// Pulling and discarding are steps of their own (with a date), not ticks among what was done.
-const sheetActions = checkActions.filter((a) => a !== "pulled" && a !== "discarded");
-const options = <T extends string>(values: readonly T[], labels: Record<T, string>) => values.map((value) => ({ value, label: labels[value] }));
 
 type Photo = { blob: Blob; url: string };
 
@@ -67,23 +50,25 @@ export function CheckSheet() {
   const from = params.get("from");
   const today = formatIsoDay(new Date());
 
+  const tools = useLazyModule(sheetView);
+  const Details = useLazyModule(detailsForm)?.CheckDetails;
   const data = useLiveQuery(async () => {
+    if (!tools) return undefined; // "Opening the bag…" until the bag's window can be worked out
     const db = getLocalDb();
     const [sheet, identity, fetched] = await Promise.all([loadBagForSheet(db, { bagId, code }), loadIdentity(db), loadFarmFetched(db)]);
     return { sheet, identity, fetched };
-  }, [bagId, code]);
+  }, [bagId, code, tools]);
   // Cold lost up to now moves the window, as on Today (the live query re-runs when the store's readings change).
-  const view = useMemo(() => (data?.sheet ? describeSheet(data.sheet, today, { asOf: Date.now() }) : null), [data?.sheet, today]);
+  const view = useMemo(() => (data?.sheet && tools ? tools.describeSheet(data.sheet, today, { asOf: Date.now() }) : null), [data?.sheet, today, tools]);
 
   // Fetch the save's schema checks once the sheet is open, so the first tap does not wait for them.
   useEffect(() => {
-    const t = setTimeout(() => void loadSave().catch(() => undefined), 300);
+    const t = setTimeout(() => void Promise.all([loadSave(), loadRepo()]).catch(() => undefined), 300);
     return () => clearTimeout(t);
   }, []);
 
   const farmRoots = useFarmRoots(data?.sheet?.lot?.species, data?.sheet?.bag.start_date ?? null);
   const unit: TemperatureUnit = data?.identity?.farm.temperature_unit === "F" ? "F" : "C";
-  const cadence = cadenceFor(data?.identity?.farm.weekly_check_days);
   const role = data?.identity?.role;
   const mayRecord = role ? canRun(role, "check.record") : false;
 
@@ -93,23 +78,11 @@ export function CheckSheet() {
   const [photoNote, setPhotoNote] = useState<string | null>(null);
   const [ending, setEnding] = useState<"pull" | "discard" | null>(null);
 
-  // The resolver is kept by the form from its first render; it reads the bag and unit through a ref.
-  const contextRef = useRef({ view, unit });
-  contextRef.current = { view, unit };
-  const resolver: Resolver<CheckDraft> = async (values) => {
-    const { view, unit } = contextRef.current;
-    if (!view) return { values: {}, errors: { root: { type: "bag", message: "No bag to check." } } };
-    const { planCheckSave } = await loadSave();
-    const r = planCheckSave(values, { bag: view.forCheck, now: new Date(), today, unit, newId: () => crypto.randomUUID() });
-    if (r.ok) return { values, errors: {} };
-    const errors: Record<string, { type: string; message: string }> = {};
-    if (r.fields.temperature) errors.temperatureText = { type: "invalid", message: r.fields.temperature };
-    if (r.fields.note) errors.note = { type: "invalid", message: r.fields.note };
-    if (r.fields.form) errors.root = { type: "invalid", message: r.fields.form };
-    return { values: {}, errors };
-  };
-  const form = useForm<CheckDraft>({ defaultValues: allGoodDraft, resolver });
-  const draft = form.watch();
+  // What is entered lives in the details form (react-hook-form, loaded beside hydration); until it is there the
+  // draft is "all good", which is what the one-tap step saves.
+  const [draft, setDraft] = useState<CheckDraft>(allGoodDraft);
+  const formRef = useRef<CheckFormHandle | null>(null);
+  const valuesNow = () => formRef.current?.getValues() ?? draft;
 
   if (data === undefined) return <p className="text-ink-soft">Opening the bag…</p>;
   if (!data.identity) {
@@ -151,20 +124,25 @@ export function CheckSheet() {
   }
 
   const { row, forCheck, cautions, lotText } = view;
-  const preview = previewCheck(draft, { ...forCheck, rootsWatchFrom: farmRoots?.watchFrom ?? null }, today, cadence, formatShortDay);
   const lastCheck = data.sheet.lastCheck;
   const entered = isDraftEntered(draft, photo !== null);
   const choice = chooseSheetSteps({ state: row.state, findings: draft, entered, lastCheck });
-  const findingAdvice = adviseOnFindings(draft);
 
   // Back where the grower came from: the round, the bag's page, or (by default) the scanner for the next bag.
   const leaveTo = () =>
     from === "today" ? "/today" : from === "bag" ? `/bags/view?id=${encodeURIComponent(forCheck.id)}` : `/scan?saved=${encodeURIComponent(row.code)}`;
 
+  /** The save's checks and rows for these values (./check-save, loaded on the first tap if not yet warmed). */
+  async function planSave(values: CheckDraft, end?: CheckEnd) {
+    const { planCheckSave } = await loadSave();
+    return planCheckSave(values, { bag: forCheck, now: new Date(), today, unit, newId: () => crypto.randomUUID() }, end);
+  }
+
   async function persist(plan: CheckSavePlan) {
     setSaving(true);
     setSaveError(null);
     try {
+      const { discardBag, pullBag, recordCheck, recordReading } = await loadRepo();
       await recordCheck(plan.check);
       if (plan.reading) await recordReading(plan.reading);
       if (photo) await (await import("@/lib/client/photos")).queuePhoto({ bagId: forCheck.id, checkId: plan.check.id, blob: photo.blob });
@@ -178,19 +156,22 @@ export function CheckSheet() {
   }
 
   async function saveAllGood() {
-    const { planCheckSave } = await loadSave();
-    const r = planCheckSave(markAllGood(form.getValues()), { bag: forCheck, now: new Date(), today, unit, newId: () => crypto.randomUUID() });
+    const r = await planSave(markAllGood(valuesNow()));
     if (r.ok) return void persist(r.plan);
-    if (r.fields.temperature) form.setError("temperatureText", { type: "invalid", message: r.fields.temperature });
-    if (r.fields.note) form.setError("note", { type: "invalid", message: r.fields.note });
+    formRef.current?.showErrors(r.fields);
     setSaveError("Not saved: see the marked field below.");
   }
 
-  const onSubmit = form.handleSubmit(async (values) => {
-    const { planCheckSave } = await loadSave();
-    const r = planCheckSave(values, { bag: forCheck, now: new Date(), today, unit, newId: () => crypto.randomUUID() });
+  // The details form's submit, once its values passed the save's checks (its resolver, `checkValues`).
+  async function saveEntered(values: CheckDraft) {
+    const r = await planSave(values);
     if (r.ok) void persist(r.plan);
-  });
+  }
+
+  async function checkValues(values: CheckDraft) {
+    const r = await planSave(values);
+    return r.ok ? null : r.fields;
+  }
 
   /** A confirmed pull or discard: with the check when anything was entered, on its own otherwise. */
   async function endBag(end: CheckEnd) {
@@ -198,6 +179,7 @@ export function CheckSheet() {
       setSaving(true);
       setSaveError(null);
       try {
+        const { discardBag, pullBag } = await loadRepo();
         if (end.kind === "pull") await pullBag(forCheck.id, end.on);
         else await discardBag(forCheck.id, end.on, end.reason);
         router.replace(leaveTo());
@@ -207,18 +189,16 @@ export function CheckSheet() {
       }
       return;
     }
-    const { planCheckSave } = await loadSave();
-    const r = planCheckSave(form.getValues(), { bag: forCheck, now: new Date(), today, unit, newId: () => crypto.randomUUID() }, end);
+    const r = await planSave(valuesNow(), end);
     if (r.ok) return void persist(r.plan);
-    if (r.fields.temperature) form.setError("temperatureText", { type: "invalid", message: r.fields.temperature });
-    if (r.fields.note) form.setError("note", { type: "invalid", message: r.fields.note });
+    formRef.current?.showErrors(r.fields);
     setEnding(null);
     setSaveError("Not saved: see the marked field below.");
   }
 
   function runStep(step: SheetStep) {
     if (step === "all_good" || step === "keep_chilling") return void saveAllGood();
-    if (step === "save") return void onSubmit();
+    if (step === "save") return void formRef.current?.submit();
     setEnding((cur) => (cur === step ? null : step));
   }
 
@@ -257,7 +237,7 @@ export function CheckSheet() {
           </dd>
           <dt className="text-ink-soft">Pull window</dt>
           <dd className="font-semibold">
-            {formatPullWindow(row.window, formatShortDay)}
+            {tools!.formatPullWindow(row.window, formatShortDay)}
           </dd>
           {lotText ? (
             <>
@@ -321,121 +301,54 @@ export function CheckSheet() {
         />
       ) : null}
 
-      <form onSubmit={onSubmit} className="space-y-5" aria-labelledby="details-heading" noValidate>
-        <h2 id="details-heading" className="border-t-2 border-rime-200 pt-4 text-title font-bold text-glacier-800">
-          {entered ? "What you found" : "Or record what you found"}
-        </h2>
-        <Controller
-          control={form.control}
-          name="moisture"
-          render={({ field }) => (
-            <Segmented legend="Moisture" name="moisture" options={options(moistureLevels, vocabularyLabels.moisture)} value={field.value} onChange={field.onChange} tone={moistureTone} />
-          )}
-        />
-        <FindingAdvice advice={findingAdvice.moisture} testId="advice-moisture" />
-        <Controller
-          control={form.control}
-          name="mould"
-          render={({ field }) => (
-            <Segmented legend="Mould" name="mould" options={options(mouldLevels, vocabularyLabels.mould)} value={field.value} onChange={field.onChange} tone={mouldTone} />
-          )}
-        />
-        <FindingAdvice advice={findingAdvice.mould} testId="advice-mould">
-          {preview.showMouldCaution ? <span className="block text-ink-soft">{cautionTexts.mould}</span> : null}
-        </FindingAdvice>
-        <Controller
-          control={form.control}
-          name="sprouts"
-          render={({ field }) => (
-            <Segmented legend="Sprouts" name="sprouts" options={options(sproutLevels, vocabularyLabels.sprouts)} value={field.value} onChange={field.onChange} tone={sproutsTone} />
-          )}
-        />
-        <FindingAdvice advice={findingAdvice.sprouts} testId="advice-sprouts" />
-
-        <p className="rounded-card bg-rime-100 p-3 text-label font-semibold" data-testid="advice" aria-live="polite">
-          {preview.nextText}
-        </p>
-
-        <Controller
-          control={form.control}
-          name="actions"
-          render={({ field }) => (
-            <fieldset className="space-y-1">
-              <legend className="text-label font-semibold">What you did (tick all that apply)</legend>
-              <div className="grid grid-cols-2 gap-2">
-                {sheetActions.map((a) => {
-                  const on = field.value.includes(a);
-                  return (
-                    <label
-                      key={a}
-                      className={`flex min-h-tap cursor-pointer items-center gap-2 rounded-card border-2 px-3 py-2 text-label font-semibold has-[:focus-visible]:outline has-[:focus-visible]:outline-3 has-[:focus-visible]:outline-glacier-500 ${
-                        on ? "border-glacier-700 bg-rime-200 text-glacier-800" : "border-rime-300 bg-paper"
-                      }`}
+      {Details ? (
+        <Details
+          handle={formRef}
+          bag={{ ...forCheck, rootsWatchFrom: farmRoots?.watchFrom ?? null }}
+          today={today}
+          unit={unit}
+          weeklyCheckDays={data.identity?.farm.weekly_check_days}
+          lastCheck={lastCheck}
+          entered={entered}
+          check={checkValues}
+          onDraft={setDraft}
+          onValid={(values) => void saveEntered(values)}
+          photo={
+            <div className="space-y-2">
+              <label htmlFor="check-photo" className="flex min-h-14 cursor-pointer items-center justify-center gap-2 rounded-card border-2 border-dashed border-glacier-600 bg-paper px-4 text-body font-semibold text-glacier-700">
+                <span aria-hidden="true">◉</span> {photo ? "Retake photo" : "Take a photo"}
+              </label>
+              <input id="check-photo" type="file" accept="image/*" capture="environment" className="sr-only" onChange={(e) => void pickPhoto(e.target.files?.[0])} />
+              {photoNote ? (
+                <p role="alert" className="text-label font-medium text-ember-700">
+                  {photoNote}
+                </p>
+              ) : null}
+              {photo ? (
+                <div className="flex items-center gap-3">
+                  {/* eslint-disable-next-line @next/next/no-img-element -- a local blob preview, not a served image */}
+                  <img src={photo.url} alt="The photo that will be saved with this check" className="h-24 w-24 rounded-xl object-cover" />
+                  <div className="text-label text-ink-soft">
+                    <p>{Math.round(photo.blob.size / 1024)} kB, kept on the phone until it can be sent.</p>
+                    <button
+                      type="button"
+                      className="min-h-tap font-semibold text-ember-700 underline"
+                      onClick={() => {
+                        URL.revokeObjectURL(photo.url);
+                        setPhoto(null);
+                      }}
                     >
-                      <input type="checkbox" className="h-5 w-5 accent-glacier-700" checked={on} onChange={() => field.onChange(toggleAction(field.value, a))} />
-                      {vocabularyLabels.checkAction[a]}
-                    </label>
-                  );
-                })}
-              </div>
-            </fieldset>
-          )}
-        />
-
-        <Field label={`Store temperature (°${unit}), if you read it`} htmlFor="check-temperature" error={form.formState.errors.temperatureText?.message} hint="Optional; it is also kept as a reading for this store.">
-          <Input
-            id="check-temperature"
-            autoComplete="off"
-            placeholder={unit === "F" ? "e.g. 38" : "e.g. 3.5"}
-            {...form.register("temperatureText")}
-            aria-invalid={form.formState.errors.temperatureText ? true : undefined}
-          />
-        </Field>
-        {lastCheck?.temperature_c !== null && lastCheck?.temperature_c !== undefined ? (
-          <p className="-mt-3 text-label text-ink-soft">Last time: {formatTemperature(lastCheck.temperature_c, unit)}</p>
-        ) : null}
-
-        <Field label="Note" htmlFor="check-note" error={form.formState.errors.note?.message}>
-          <TextArea id="check-note" rows={2} {...form.register("note")} aria-invalid={form.formState.errors.note ? true : undefined} />
-        </Field>
-
-        <div className="space-y-2">
-          <label htmlFor="check-photo" className="flex min-h-14 cursor-pointer items-center justify-center gap-2 rounded-card border-2 border-dashed border-glacier-600 bg-paper px-4 text-body font-semibold text-glacier-700">
-            <span aria-hidden="true">◉</span> {photo ? "Retake photo" : "Take a photo"}
-          </label>
-          <input id="check-photo" type="file" accept="image/*" capture="environment" className="sr-only" onChange={(e) => void pickPhoto(e.target.files?.[0])} />
-          {photoNote ? (
-            <p role="alert" className="text-label font-medium text-ember-700">
-              {photoNote}
-            </p>
-          ) : null}
-          {photo ? (
-            <div className="flex items-center gap-3">
-              {/* eslint-disable-next-line @next/next/no-img-element -- a local blob preview, not a served image */}
-              <img src={photo.url} alt="The photo that will be saved with this check" className="h-24 w-24 rounded-xl object-cover" />
-              <div className="text-label text-ink-soft">
-                <p>{Math.round(photo.blob.size / 1024)} kB, kept on the phone until it can be sent.</p>
-                <button
-                  type="button"
-                  className="min-h-tap font-semibold text-ember-700 underline"
-                  onClick={() => {
-                    URL.revokeObjectURL(photo.url);
-                    setPhoto(null);
-                  }}
-                >
-                  Remove photo
-                </button>
-              </div>
+                      Remove photo
+                    </button>
+                  </div>
+                </div>
+              ) : null}
             </div>
-          ) : null}
-        </div>
-
-        {form.formState.errors.root?.message ? (
-          <p role="alert" className="text-label font-medium text-ember-700">
-            {form.formState.errors.root.message}
-          </p>
-        ) : null}
-      </form>
+          }
+        />
+      ) : (
+        <p className="border-t-2 border-rime-200 pt-4 text-ink-soft">Opening the details…</p>
+      )}
 
       <SheetCautions bagId={row.id} cautions={cautions} />
     </div>
@@ -497,24 +410,5 @@ function ChoiceBar({
       {choice.then.length ? <div className="flex flex-wrap gap-2">{choice.then.map((s) => stepButton(s, "md"))}</div> : null}
       {ending === "pull" ? pullPanel : ending === "discard" ? discardPanel : null}
     </section>
-  );
-}
-
-/** The advice for one finding, right under the choice that caused it. */
-function FindingAdvice({ advice, testId, children }: { advice: CheckAdvice | null; testId: string; children?: React.ReactNode }) {
-  if (!advice) return null;
-  const frame = advice.level === "act_now" ? "border-ember-600 bg-ember-100" : "border-wheat-600 bg-wheat-100";
-  return (
-    <div className={`-mt-3 space-y-1 rounded-card border-l-4 p-3 text-label ${frame}`} data-testid={testId} role="status">
-      <p className="font-semibold">{advice.headline}</p>
-      {advice.steps.length ? (
-        <ul className="list-disc space-y-1 pl-5">
-          {advice.steps.map((s) => (
-            <li key={s}>{s}</li>
-          ))}
-        </ul>
-      ) : null}
-      {children}
-    </div>
   );
 }

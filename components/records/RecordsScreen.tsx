@@ -5,7 +5,7 @@ import { useLiveQuery } from "dexie-react-hooks";
 import { getLocalDb } from "@/lib/client/db";
 import { useOnline } from "@/lib/client/hooks";
 import { refetchFarmCopy } from "@/lib/client/identity";
-import { getSyncEngine } from "@/lib/client/sync";
+import { syncNowSoon } from "@/lib/client/sync-signal";
 import { buttonClass, Button } from "@/components/ui/Button";
 import { Card, PageHeader } from "@/components/ui/Card";
 import { useMember } from "@/components/season/use-member";
@@ -123,7 +123,7 @@ function RestorePanel() {
       }
       // The farm is new from end to end: this phone drops its copy and fetches the restored one.
       await refetchFarmCopy();
-      void getSyncEngine().syncNow();
+      syncNowSoon();
       setState({ status: "done", report: body });
     } catch {
       setState({ status: "error", message: "No connection to the server. Restoring needs signal; nothing was changed." });

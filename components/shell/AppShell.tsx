@@ -7,7 +7,7 @@ import { getLocalDb } from "@/lib/client/db";
 import { useIdentity, useSyncStatus } from "@/lib/client/hooks";
 import { loadIdentity, refreshIdentity } from "@/lib/client/identity";
 import { META } from "@/lib/client/meta";
-import { getSyncEngine } from "@/lib/client/sync";
+import { startSyncLoop } from "@/lib/client/sync-signal";
 import { RimeMark } from "@/components/ui/RimeMark";
 import { BottomNav } from "./BottomNav";
 import { SideNav } from "./SideNav";
@@ -40,7 +40,7 @@ export function AppShell({ children }: { children: React.ReactNode }) {
       }
       if (fresh === "offline" && !local) return setGate("needs_signal");
       setGate("ready");
-      getSyncEngine().start(); // a 401 (fresh === null with a local identity) shows "needs sign-in"; the outbox is kept
+      void startSyncLoop(); // loaded now, after first paint; a 401 (fresh === null with a local identity) shows "needs sign-in"; the outbox is kept
     })();
     return () => {
       cancelled = true;

@@ -7,7 +7,7 @@ import { parseReadingsCsv, type ReadingsCsvReport } from "@/lib/domain/csv-readi
 import type { TemperatureUnit } from "@/lib/domain/units";
 import { Button } from "@/components/ui/Button";
 import { Field, Select } from "@/components/ui/Field";
-import { getSyncEngine } from "@/lib/client/sync";
+import { syncNowSoon } from "@/lib/client/sync-signal";
 import { useOnline } from "@/lib/client/hooks";
 import { ImportRowReport } from "./ImportRowReport";
 import { Notice } from "@/components/season/Notice";
@@ -111,7 +111,7 @@ export function ReadingsImport({ storeId, farmUnit, timeZone }: { storeId: strin
         setFile(null);
         setText(null);
         setInputKey((k) => k + 1);
-        void getSyncEngine().syncNow();
+        syncNowSoon();
       } else {
         setResult({
           ok: false,

@@ -1,5 +1,6 @@
 "use client";
 
+import dynamic from "next/dynamic";
 import Link from "next/link";
 import { useMemo, useState } from "react";
 import { useSearchParams } from "next/navigation";
@@ -22,11 +23,13 @@ import { buildChartPoints, describeBand, describeStoreColdLoss, measureBagCold, 
 import { bandOfStoreKind } from "@/lib/domain/store-rules";
 import { ReadingsChart } from "./ReadingsChart";
 import { DryingPanel } from "@/components/learn/DryingPanel";
-import { ReadingEntry } from "./ReadingForm";
-import { ReadingsImport } from "./ReadingsImport";
 import { StoreDelete } from "./StoreDelete";
-import { StoreForm } from "./StoreForm";
 import { StoreGlyph } from "./StoreGlyph";
+
+// Opened by a tap, so loaded then (react-hook-form and zod stay out of the first load; precached for offline).
+const ReadingEntry = dynamic(() => import("./ReadingForm").then((m) => m.ReadingEntry), { ssr: false });
+const ReadingsImport = dynamic(() => import("./ReadingsImport").then((m) => m.ReadingsImport), { ssr: false });
+const StoreForm = dynamic(() => import("./StoreForm").then((m) => m.StoreForm), { ssr: false });
 
 const ranges = [
   { key: "7", label: "7 days", days: 7 },

@@ -2,72 +2,34 @@
 
 import Link from "next/link";
 import { useLiveQuery } from "dexie-react-hooks";
-import { getLocalDb } from "@/lib/client/db";
-import { loadFarmFetched, loadFarmRows, loadLastChecks } from "@/lib/client/fridge-reads";
-import { loadIdentity } from "@/lib/client/identity";
 import { useClockLabel } from "@/lib/client/hooks";
-import { loadSpeciesWindows } from "@/lib/client/history-reads";
+import { lazyModule, useLazyModule } from "@/lib/client/lazy-module";
 import { formatIsoDay } from "@/lib/domain/dates";
 import { formatBagCode } from "@/lib/domain/bag-codes";
 import type { RoundItem } from "@/lib/domain/round";
 import { chooseSheetSteps, sheetStepLabels, type SheetTone } from "@/lib/domain/check-choice";
+import type { PulledBagRow } from "@/lib/domain/rows/round-input";
 import { allGoodFindings } from "@/lib/schemas/words";
 import { buttonClass } from "@/components/ui/Button";
 import { Card } from "@/components/ui/Card";
 import { StateBadge } from "@/components/ui/StateBadge";
 import { formatShortDay } from "@/components/bags/format-day";
-import {
-  buildRoundFromRows,
-  buildSowQueueFromRows,
-  cadenceFor,
-  chipKindOf,
-  countStoreBags,
-  describeRoundCount,
-  isWaitingToSow,
-  roundHeadline,
-  summarizeRound,
-  summarizeSowQueue,
-  urgentChipKinds,
-  type PulledBagRow,
-} from "@/lib/domain/rows/round-input";
 import type { SowItem } from "@/lib/domain/sow-queue";
 import { ScanGlyph } from "./ScanGlyph";
 import { FirstSteps } from "./FirstSteps";
-import { listFirstSteps } from "./first-steps";
 
 // Today: the bags due for a check, worked out on the phone from the phone store (works with no signal).
-
-async function loadRound(today: string) {
-  const db = getLocalDb();
-  // Readings only from the fridges' bags still in the cold: the round never shows a pulled bag.
-  const [rows, identity, fetched] = await Promise.all([loadFarmRows(db, "in_cold"), loadIdentity(db), loadFarmFetched(db)]);
-  const live = rows.bags.filter((b) => !b.deleted_at && b.start_date && !b.pulled_on && !b.sown_on && !b.discarded_on);
-  const toSow = rows.bags.filter(isWaitingToSow);
-  const [lastChecks, farmWindows] = await Promise.all([loadLastChecks(db, [...live, ...toSow].map((b) => b.id)), loadSpeciesWindows(db, rows, today)]);
-  // Windows move by the cold lost up to now (each store's readings, read once): the same rows as the bags table.
-  // The farm's own history turns a bag daily from the day its species' roots have shown here.
-  const round = buildRoundFromRows(rows, lastChecks, today, cadenceFor(identity?.farm.weekly_check_days), { asOf: Date.now() }, farmWindows);
-  // The same bags the red chips count, so the sentence and the chips agree.
-  const urgent = round.items.filter((i) => urgentChipKinds.has(chipKindOf(i))).length;
-  // Pulled bags waiting to be sown: their own group, most urgent first (lib/domain sowing rule).
-  const sowQueue = buildSowQueueFromRows(rows, lastChecks, today, undefined, formatShortDay);
-  const kindOf = new Map(rows.stores.map((st) => [st.id, st.kind]));
-  const headline = roundHeadline(
-    round.counts.due,
-    round.stores.map((st) => ({ name: st.storeName, kind: kindOf.get(st.storeId) ?? "fridge" })),
-    sowQueue.length,
-  );
-  const alive = <T extends { deleted_at?: string | null }>(xs: readonly T[]) => xs.filter((x) => !x.deleted_at).length;
-  const firstSteps = listFirstSteps({ stores: alive(rows.stores), lots: alive(rows.lots), bags: alive(rows.bags) });
-  return { round, sowQueue, identity, fetched, urgent, headline, firstSteps, bagCount: rows.bags.length };
-}
+// The frame and the Scan button paint first; the round's reads and computations (./round-data) load beside
+// hydration, since nothing of the round can be drawn before the phone store answers anyway.
+const roundData = lazyModule(() => import("./round-data"));
 
 const longDay = new Intl.DateTimeFormat("en-GB", { weekday: "long", day: "numeric", month: "long" });
 const formatLongDay = (now: Date) => longDay.format(now);
 
 export function TodayRound() {
   const today = formatIsoDay(new Date());
-  const data = useLiveQuery(() => loadRound(today), [today]);
+  const compute = useLazyModule(roundData);
+  const data = useLiveQuery(() => compute?.loadRound(today), [compute, today]);
   const dayLabel = useClockLabel(formatLongDay);
 
   return (
@@ -80,7 +42,7 @@ export function TodayRound() {
         <p className="min-h-[1.5em] text-label text-ink-soft">{dayLabel ? `Today\u2019s round · ${dayLabel}` : "Today\u2019s round"}</p>
         {data && !data.firstSteps && (data.fetched || data.bagCount > 0) ? (
           <p className="text-body text-ink-soft" data-testid="round-count">
-            {describeRoundCount(data.round.counts.due, data.urgent, data.sowQueue)}
+            {data.countText}
           </p>
         ) : null}
       </header>
@@ -99,7 +61,7 @@ export function TodayRound() {
 
       {data && data.round.counts.due + data.sowQueue.length > 0 ? (
         <ul className="flex flex-wrap gap-2" aria-label="Due today by reason">
-          {[...summarizeSowQueue(data.sowQueue), ...summarizeRound(data.round)].map((s) => (
+          {data.chips.map((s) => (
             <li key={s.kind} className={`rounded-md border px-2.5 py-1 text-label font-semibold ${chipLook[s.tone].frame}`} data-tone={s.tone}>
               {chipLook[s.tone].mark ? <span aria-hidden="true">{chipLook[s.tone].mark}</span> : null}
               {s.count} · {s.label}
@@ -114,7 +76,7 @@ export function TodayRound() {
         <section key={store.storeId} aria-labelledby={`store-${store.storeId}`} className="space-y-3">
           <h2 id={`store-${store.storeId}`} className="flex items-baseline justify-between border-b-2 border-rime-200 pb-1 text-title font-bold text-glacier-800">
             <span>{store.storeName}</span>
-            <span className="text-label font-semibold text-ink-soft">{countStoreBags(store)} due</span>
+            <span className="text-label font-semibold text-ink-soft">{data.storeDue.get(store.storeId) ?? 0} due</span>
           </h2>
           {store.boxes.map((box) => (
             <div key={box.box} className="space-y-2">

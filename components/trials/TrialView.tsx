@@ -1,5 +1,6 @@
 "use client";
 
+import dynamic from "next/dynamic";
 import Link from "next/link";
 import { useMemo, useState } from "react";
 import { useSearchParams } from "next/navigation";
@@ -23,8 +24,10 @@ import { useMember } from "@/components/season/use-member";
 import { assembleTrialTable, buildTrialProtocol } from "./trial-table";
 import { ComparisonTable } from "./ComparisonTable";
 import { Notice } from "@/components/season/Notice";
-import { EditTrialForm } from "./TrialForm";
 import { TrialDelete } from "./TrialDelete";
+
+// Opened by a tap, so loaded then (react-hook-form and zod stay out of the first load; precached for offline).
+const EditTrialForm = dynamic(() => import("./TrialForm").then((m) => m.EditTrialForm), { ssr: false });
 
 const verdictLook = {
   clear_difference: "border-moss-600 bg-moss-100",

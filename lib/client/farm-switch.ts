@@ -2,7 +2,7 @@ import type { Role } from "@/lib/schemas/words";
 import { getLocalDb, type RimebookDB } from "./db";
 import { adoptIdentity, clearFarmCaches, loadIdentity } from "./identity";
 import type { PhoneIdentity } from "./meta";
-import { getSyncEngine, type SyncEngine } from "./sync";
+import type { SyncEngine } from "./sync";
 import { readWaiting, type WaitingTally } from "./waiting";
 
 // Opening another farm the person belongs to. The phone keeps ONE farm's copy: adopting another
@@ -40,7 +40,9 @@ const isClear = (l: LeftBehind) => l.pending + l.refused + l.photos === 0;
  * then starts the phone's copy afresh for it. On refusal the loop is started again as it was.
  * The caller reloads the app on success (every screen then reads the new farm).
  */
-export async function switchFarm(farmId: string, { fetch: f = fetch, baseUrl = "", db = getLocalDb(), engine = getSyncEngine() }: Options = {}): Promise<SwitchResult> {
+export async function switchFarm(farmId: string, { fetch: f = fetch, baseUrl = "", db = getLocalDb(), engine: given }: Options = {}): Promise<SwitchResult> {
+  // The app's loop, loaded here if the screen has not yet (it loads after first paint).
+  const engine = given ?? (await import("./sync")).getSyncEngine();
   const current = await loadIdentity(db);
   // No new runs start while we switch; a run already going is awaited (and sends what waits).
   engine.stop();

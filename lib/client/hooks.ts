@@ -4,13 +4,13 @@ import { useEffect, useState, useSyncExternalStore } from "react";
 import { useLiveQuery } from "dexie-react-hooks";
 import { getLocalDb, type OutboxEntry, type PendingPhoto } from "./db";
 import { readIdentity, type PhoneIdentity } from "./meta";
-import { getSyncEngine, outboxCounts, type SyncState } from "./sync";
-import { nothingWaiting, type WaitingTally } from "./waiting";
+import type { SyncState } from "./sync";
+import { idleSyncState as syncLoopStateIdle, syncLoopState } from "./sync-signal";
+import { nothingWaiting, outboxCounts, type WaitingTally } from "./waiting";
 
 // React reads of the phone store and the sync loop. Components read with these (or useLiveQuery on
 // getLocalDb()) and write only through lib/client/repo.ts.
 
-const serverState: SyncState = { phase: "idle", lastSyncAt: null, error: null, firstPull: null, retryAt: null };
 const noCounts = { pending: 0, rejected: 0, photos: 0, waiting: nothingWaiting };
 
 /** `pending` and `photos` count what the person recorded (`waiting` says what); `rejected` counts refused changes and photos. */
@@ -51,14 +51,12 @@ export function useClockLabel(format: (now: Date) => string): string | null {
   );
 }
 
+const idleState = () => syncLoopStateIdle;
+
 /** The sync loop's phase plus live outbox counts, for the status pill and its details. */
 export function useSyncStatus(): SyncStatus {
-  const engine = typeof window === "undefined" ? null : getSyncEngine();
-  const state = useSyncExternalStore(
-    (cb) => (engine ? engine.subscribe(cb) : () => {}),
-    () => (engine ? engine.getState() : serverState),
-    () => serverState,
-  );
+  // The loop itself loads after first paint (startSyncLoop); until then its state is idle.
+  const state = useSyncExternalStore(syncLoopState.subscribe, syncLoopState.getState, idleState);
   const counts = useLiveQuery(() => outboxCounts(), [], noCounts) ?? noCounts;
   return { ...state, ...counts, online: useOnline() };
 }

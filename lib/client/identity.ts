@@ -1,9 +1,6 @@
 import { SCREENS_CACHE_PREFIX } from "./cache-names";
 import { farmTables, getLocalDb, type RimebookDB } from "./db";
 import { META, readIdentity, readMeta, writeMeta, type PhoneIdentity } from "./meta";
-import { getSyncEngine, setSyncEngine } from "./sync";
-import { forgetKeptReadings } from "./kept-readings";
-import { dropPushSubscription } from "./reminders";
 import { readWaiting, type WaitingTally } from "./waiting";
 
 // Who is using this phone. Kept in the phone store so the app opens with no signal; refreshed from
@@ -91,9 +88,10 @@ export async function signOut({ force = false, fetch: f = fetch, baseUrl = "", d
   } catch {
     /* offline: the cookie is cleared server-side at its expiry; the phone forgets it now */
   }
+  // Loaded only here (sign-out is rare), so neither weighs on a screen's first load.
+  const [{ dropPushSubscription }, { setSyncEngine }] = await Promise.all([import("./reminders"), import("./sync")]);
   await dropPushSubscription();
-  getSyncEngine().stop();
-  setSyncEngine(null);
+  setSyncEngine(null); // stops the loop
   await wipePhoneStore(db);
   await clearFarmCaches();
   return { ok: true };
@@ -106,8 +104,9 @@ export async function wipePhoneStore(db: RimebookDB = getLocalDb()): Promise<voi
     await Promise.all(db.tables.map((t) => t.clear()));
     if (deviceId) await writeMeta(db, META.deviceId, deviceId);
   });
-  // Only the device id stays: what screens kept of the farm's readings in this tab goes too.
-  forgetKeptReadings(db);
+  // Only the device id stays: what screens kept of the farm's readings in this tab goes too (loaded here,
+  // not with the shell: a wipe is rare).
+  (await import("./kept-readings")).forgetKeptReadings(db);
 }
 
 /** Runtime caches (API answers, visited pages, photos) go; the build's precache and screen payloads (no farm data) stay. */

@@ -1,8 +1,8 @@
 import { getLocalDb, type OutboxEntry, type RimebookDB } from "./db";
 import { applyEffectsLocally, applyPulledPage, effectsOfEntry, undoRejected, writeTables, type PulledChange } from "./local-apply";
 import { META, deviceIdOf, readIdentity, readMeta, writeMeta, type FarmSettings, type PhoneIdentity } from "./meta";
-import { setSyncNudger } from "./sync-signal";
-import { splitPhotos, tallyWaiting, type WaitingTally } from "./waiting";
+import { attachSyncLoop, idleSyncState, setSyncNudger } from "./sync-signal";
+import { outboxCounts } from "./waiting";
 
 // The sync loop: push the outbox in batches, upload waiting photos, pull the farm's changes.
 // Runs on start, when the network comes back, on focus, shortly after each local write and on an
@@ -55,7 +55,7 @@ const retryableCodes = new Set(["server_error"]);
 export class SyncEngine {
   readonly db: RimebookDB;
   private readonly opts: Required<Omit<SyncOptions, "db" | "fetch">> & { fetch: typeof fetch };
-  private state: SyncState = { phase: "idle", lastSyncAt: null, error: null, firstPull: null, retryAt: null };
+  private state: SyncState = idleSyncState;
   private readonly listeners = new Set<() => void>();
   private running: Promise<SyncState> | null = null;
   private again = false;
@@ -300,20 +300,7 @@ export class SyncEngine {
   }
 }
 
-/**
- * What waits on this phone, counted as the person recorded it (lib/client/waiting.ts), and what the
- * server refused (changes and photos, shown until the person decides).
- */
-export async function outboxCounts(db: RimebookDB = getLocalDb()): Promise<{ pending: number; rejected: number; photos: number; waiting: WaitingTally }> {
-  const [entries, rejected, photos] = await Promise.all([
-    db.outbox.where("status").anyOf("pending", "sending").sortBy("n"),
-    db.outbox.where("status").equals("rejected").count(),
-    db.pending_photos.toArray(),
-  ]);
-  const split = splitPhotos(photos);
-  const waiting = tallyWaiting(entries, split.waiting);
-  return { pending: waiting.records, rejected: rejected + split.refused, photos: waiting.photos, waiting };
-}
+export { outboxCounts };
 
 /** The person read a refused change and lets it go (its rows were already undone on this phone). */
 export async function dismissRejected(mutationId: string, db: RimebookDB = getLocalDb()): Promise<void> {
@@ -351,7 +338,10 @@ let engine: SyncEngine | null = null;
 
 /** The app's one sync loop (created on first use with browser defaults). */
 export function getSyncEngine(): SyncEngine {
-  if (!engine) engine = new SyncEngine();
+  if (!engine) {
+    engine = new SyncEngine();
+    attachSyncLoop(engine);
+  }
   return engine;
 }
 
@@ -359,4 +349,5 @@ export function getSyncEngine(): SyncEngine {
 export function setSyncEngine(next: SyncEngine | null): void {
   engine?.stop();
   engine = next;
+  attachSyncLoop(next);
 }

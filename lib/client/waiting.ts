@@ -56,3 +56,18 @@ export async function readWaiting(db: RimebookDB = getLocalDb(), { refusedPhotos
   const [entries, photos] = await Promise.all([db.outbox.where("status").anyOf("pending", "sending").sortBy("n"), db.pending_photos.toArray()]);
   return tallyWaiting(entries, refusedPhotosToo ? photos.length : splitPhotos(photos).waiting);
 }
+
+/**
+ * What waits on this phone, counted as the person recorded it, and what the server refused (changes and photos,
+ * shown until the person decides): the sync pill's counts.
+ */
+export async function outboxCounts(db: RimebookDB = getLocalDb()): Promise<{ pending: number; rejected: number; photos: number; waiting: WaitingTally }> {
+  const [entries, rejected, photos] = await Promise.all([
+    db.outbox.where("status").anyOf("pending", "sending").sortBy("n"),
+    db.outbox.where("status").equals("rejected").count(),
+    db.pending_photos.toArray(),
+  ]);
+  const split = splitPhotos(photos);
+  const waiting = tallyWaiting(entries, split.waiting);
+  return { pending: waiting.records, rejected: rejected + split.refused, photos: waiting.photos, waiting };
+}

@@ -10,9 +10,9 @@ import { startApp, type AppServer } from "./support/server";
 import { distPath, E2E_DIST_DIR, ROOT } from "./support/build";
 import { FLOOR_ROUTE, measureFirstLoad, staticFile } from "./support/first-load";
 
-// kB of gzip JS above the floor. /scan meets the target; /today and /check are held where they stand now (the phone
-// store, the sync engine and the round's own computations; react-hook-form on the sheet) until they reach 60.
-const BUDGET_OVER_FLOOR: Record<string, number> = { "/scan": 60, "/today": 75, "/check": 97 };
+// kB of gzip JS above the floor. /today and /scan meet the target (60); /check is held where it stands
+// (the phone store, Dexie, is ~30 kB of every farm screen's first load) until it reaches 60 too.
+const BUDGET_OVER_FLOOR: Record<string, number> = { "/scan": 60, "/today": 60, "/check": 64 };
 const CHECK_PATH = Object.keys(BUDGET_OVER_FLOOR);
 
 let app: AppServer;
