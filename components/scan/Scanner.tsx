@@ -6,7 +6,7 @@ import { useCallback, useEffect, useRef, useState } from "react";
 import { useLiveQuery } from "dexie-react-hooks";
 import type { IScannerControls } from "@zxing/browser";
 import { getLocalDb } from "@/lib/client/db";
-import { loadFarmFetched } from "@/lib/client/fridge-reads";
+import { loadFarmFetched } from "@/lib/client/meta";
 import { formatBagCode, normalizeCrockford } from "@/lib/domain/bag-codes";
 import { Button } from "@/components/ui/Button";
 import { Field, Input } from "@/components/ui/Field";

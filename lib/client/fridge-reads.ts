@@ -123,6 +123,4 @@ export async function loadBagForSheet(db: RimebookDB, ref: { bagId?: string | nu
 }
 
 /** Whether the farm has been fetched onto this phone at least once (before that, "no such bag" means "not yet"). */
-export async function loadFarmFetched(db: RimebookDB): Promise<boolean> {
-  return (await readMeta<boolean>(db, META.firstPullDone)) === true;
-}
+export { loadFarmFetched } from "./meta";

@@ -68,3 +68,8 @@ export async function deviceIdOf(db: RimebookDB): Promise<string> {
   await writeMeta(db, META.deviceId, id);
   return id;
 }
+
+/** Whether the phone has pulled the farm once (its own module-light home: the scanner needs only this). */
+export async function loadFarmFetched(db: RimebookDB): Promise<boolean> {
+  return (await readMeta<boolean>(db, META.firstPullDone)) === true;
+}
