@@ -6,7 +6,7 @@ import { useEffect, useMemo, useRef, useState } from "react";
 import { useLiveQuery } from "dexie-react-hooks";
 import { useFarmRoots } from "@/components/learn/use-farm-roots";
 import { getLocalDb } from "@/lib/client/db";
-import { loadBagForSheet, loadFarmFetched } from "@/lib/client/fridge-reads";
+import { loadFarmFetched } from "@/lib/client/meta";
 import { loadIdentity } from "@/lib/client/identity";
 import { lazyModule, useLazyModule } from "@/lib/client/lazy-module";
 import { formatBagCode, parseBagCode } from "@/lib/domain/bag-codes";
@@ -55,7 +55,7 @@ export function CheckSheet() {
   const data = useLiveQuery(async () => {
     if (!tools) return undefined; // "Opening the bag…" until the bag's window can be worked out
     const db = getLocalDb();
-    const [sheet, identity, fetched] = await Promise.all([loadBagForSheet(db, { bagId, code }), loadIdentity(db), loadFarmFetched(db)]);
+    const [sheet, identity, fetched] = await Promise.all([tools.loadBagForSheet(db, { bagId, code }), loadIdentity(db), loadFarmFetched(db)]);
     return { sheet, identity, fetched };
   }, [bagId, code, tools]);
   // Cold lost up to now moves the window, as on Today (the live query re-runs when the store's readings change).

@@ -2,6 +2,8 @@ import { buildBagRows, type BagRow, type WindowClock } from "@/lib/domain/rows/b
 import type { IsoDay } from "@/lib/domain/dates";
 import type { PullWindow } from "@/lib/domain/schedule";
 import type { BagForSheet } from "@/lib/client/fridge-reads";
+// The sheet reads its bag through this chunk too: fridge-reads carries the kept readings and the round's row code.
+export { loadBagForSheet } from "@/lib/client/fridge-reads";
 import { pickBagCautions, type BagCaution } from "./bag-cautions";
 import type { BagForCheck } from "./check-draft";
 
